@@ -1,0 +1,84 @@
+package lbm
+
+import (
+	"fmt"
+	"runtime"
+)
+
+// Config describes a lattice: its size, its physics and its boundaries.
+type Config struct {
+	Nz, Nr int // nodes along z and r
+
+	// Tau is the relaxation time of the even moments (shear viscosity
+	// nu = (Tau - 1/2)/3 in lattice units).
+	Tau float64
+	// Collision selects TRT (default), MRT or BGK.
+	Collision Collision
+	// Magic is the TRT/MRT magic parameter Lambda = (tau+ - 1/2)(tau- - 1/2);
+	// 0 means 3/16, for which halfway bounce-back puts a flat wall exactly
+	// midway between nodes at any viscosity (Ginzburg, Verhaeghe &
+	// d'Humieres 2008). Ignored by BGK.
+	Magic float64
+	// EpsilonRate is the MRT relaxation rate of the energy-square moment;
+	// 0 means 1.2 (METHODS.md 2.4 recommends a value in [1, 1.5]).
+	EpsilonRate float64
+
+	// Axisymmetric adds the axisymmetric source terms; without it the
+	// lattice is a planar (z, y) channel with a mirror line at y = 0.
+	Axisymmetric bool
+	// PeriodicZ makes the ends periodic; otherwise they are no-slip walls.
+	PeriodicZ bool
+
+	// Threads is the number of goroutines (0: GOMAXPROCS).
+	Threads int
+}
+
+func (c *Config) check() error {
+	if c.Nz < 1 || c.Nr < 1 {
+		return fmt.Errorf("lbm: grid %dx%d: both sizes must be at least 1", c.Nz, c.Nr)
+	}
+	if !(c.Tau > 0.5) {
+		return fmt.Errorf("lbm: tau = %g: must exceed 1/2 (the viscosity (tau-1/2)/3 must be positive)", c.Tau)
+	}
+	if c.Magic < 0 {
+		return fmt.Errorf("lbm: magic parameter %g: must be positive", c.Magic)
+	}
+	if c.Threads < 0 {
+		return fmt.Errorf("lbm: %d threads: must be 0 (all) or positive", c.Threads)
+	}
+	switch c.Collision {
+	case TRT, MRT, BGK:
+	default:
+		return fmt.Errorf("lbm: unknown collision operator %d", c.Collision)
+	}
+	return nil
+}
+
+func (c *Config) threads() int {
+	n := c.Threads
+	if n == 0 {
+		n = runtime.GOMAXPROCS(0)
+	}
+	if n > c.Nr {
+		n = c.Nr
+	}
+	return n
+}
+
+// Viscosity returns the lattice kinematic viscosity (Tau - 1/2)/3.
+func (c *Config) Viscosity() float64 { return Cs2 * (c.Tau - 0.5) }
+
+// rates returns the even and odd relaxation rates.
+func (c *Config) rates() (wp, wm float64) {
+	wp = 1 / c.Tau
+	if c.Collision == BGK {
+		return wp, wp
+	}
+	lam := c.Magic
+	if lam == 0 {
+		lam = 3.0 / 16
+	}
+	// Lambda = (1/w+ - 1/2)(1/w- - 1/2)
+	wm = 1 / (0.5 + lam/(c.Tau-0.5))
+	return wp, wm
+}
