@@ -1,0 +1,86 @@
+package verify
+
+import (
+	"math"
+	"math/cmplx"
+	"os"
+	"testing"
+)
+
+// TestReferenceWomersley checks our Bessel-based Womersley solution against
+// the amplitude and phase table of CHECKS.md 2b ([D], computed there from
+// the exact formula with mpmath): centre-line speed and flow rate relative
+// to the quasi-steady Poiseuille values, phases relative to the gradient.
+// The table has 5 significant figures and 3 decimals in degrees.
+func TestReferenceWomersley(t *testing.T) {
+	table := []struct {
+		alpha     float64
+		ampQ, phQ float64
+		ampU, phU float64
+	}{
+		{1, 0.98557, -9.453, 0.98493, -10.645},
+		{3, 0.54835, -54.303, 0.52198, -64.292},
+		{4, 0.35310, -65.568, 0.30802, -80.948},
+		{8, 0.10480, -78.941, 0.06173, -91.219},
+		{20, 0.01864, -85.803, 0.01000, -90.000},
+	}
+	for _, c := range table {
+		w := Womersley{R: 1, Nu: 1, Omega: c.alpha * c.alpha, G0: 1, Rho: 1}
+		ucP, qP := w.Poiseuille()
+		u, q := w.Velocity(0), w.Flow()
+		check := func(name string, got, want, tol float64) {
+			if math.Abs(got-want) > tol {
+				t.Errorf("alpha=%g %s = %.6f, CHECKS.md 2b gives %.5f", c.alpha, name, got, want)
+			}
+		}
+		check("|u_c|/u_cP", cmplx.Abs(u)/ucP, c.ampU, 6e-5)
+		check("|Q|/Q_P", cmplx.Abs(q)/qP, c.ampQ, 6e-5)
+		check("phase u_c", phaseDeg(u, 1), c.phU, 6e-4)
+		check("phase Q", phaseDeg(q, 1), c.phQ, 6e-4)
+	}
+}
+
+// TestReferenceStartup checks the Szymanski series against the centre-line
+// table of CHECKS.md 1b ([D], 5 decimals).
+func TestReferenceStartup(t *testing.T) {
+	table := []struct{ tau, u float64 }{
+		{0.05, 0.19962}, {0.10, 0.38519}, {0.20, 0.65180},
+		{0.30, 0.80455}, {0.50, 0.93852}, {1.00, 0.99659},
+	}
+	for _, c := range table {
+		if got := StartupCentre(0, c.tau); math.Abs(got-c.u) > 6e-6 {
+			t.Errorf("u_c/u_inf at tau=%g: %.6f, CHECKS.md 1b gives %.5f", c.tau, got, c.u)
+		}
+	}
+	z := besselZeros(2)
+	if math.Abs(z[0]-j01) > 1e-14 || math.Abs(z[1]-j02) > 1e-14 {
+		t.Errorf("J0 zeros %v, CHECKS.md 1b gives %v %v", z, j01, j02)
+	}
+}
+
+// TestChecks runs every quick verification case; each row must pass.
+func TestChecks(t *testing.T) {
+	for _, c := range Checks() {
+		if c.Full {
+			continue
+		}
+		t.Run(c.Name, func(t *testing.T) {
+			rows, err := c.Run(0)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(rows) == 0 {
+				t.Fatal("no rows")
+			}
+			for _, r := range rows {
+				if !r.Pass {
+					t.Errorf("%s: %s = %g, reference %g, error %g > tolerance %g (%s)",
+						r.Case, r.Quantity, r.Computed, r.Reference, r.Error, r.Tolerance, r.Source)
+				}
+			}
+			if testing.Verbose() {
+				WriteTable(os.Stdout, rows)
+			}
+		})
+	}
+}
