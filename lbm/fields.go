@@ -29,20 +29,13 @@ func (s *Solver) Fields(dst *Fields) *Fields {
 	s.fillHalo(&s.a)
 	s.pool.run(func(lo, hi, _ int) {
 		for j := lo; j < hi; j++ {
-			rc := &s.rows[j]
-			for k := 0; k < s.nz; k++ {
-				o := dst.At(k, j)
-				n := s.idx(k, j)
-				if s.solid[n] {
-					dst.Rho[o], dst.Uz[o], dst.Ur[o] = 0, 0, 0
-					continue
-				}
-				var d [Q]float64
-				for i := 0; i < Q; i++ {
-					d[i] = s.a[i][n-s.off[i]]
-				}
-				m := macro(&d, rc, s.gz, s.gr, s.wp, s.nIter)
-				dst.Rho[o], dst.Uz[o], dst.Ur[o] = m.rho, m.uz, m.ur
+			row := dst.At(0, j)
+			clear(dst.Rho[row : row+s.nz])
+			clear(dst.Uz[row : row+s.nz])
+			clear(dst.Ur[row : row+s.nz])
+			base := s.idx(0, j)
+			for _, seg := range s.segs[j] {
+				s.sweep(base+seg[0], base+seg[1], &s.rows[j], dst, row+seg[0])
 			}
 		}
 	})
@@ -131,3 +124,7 @@ func (s *Solver) State() [Q][]float64 {
 	}
 	return c
 }
+
+// Pressure returns the lattice pressure deviation p - p0 = cs2 (rho - 1) at
+// index o (multiply by rho_f (dx/dt)^2 for pascals).
+func (f *Fields) Pressure(o int) float64 { return Cs2 * (f.Rho[o] - 1) }

@@ -6,23 +6,20 @@ package lbm
 // Only fluid runs are visited; solid nodes are left alone.
 func (s *Solver) streamCollideRows(lo, hi, _ int) {
 	for j := lo; j < hi; j++ {
-		rc := &s.rows[j]
 		base := s.idx(0, j)
 		for _, seg := range s.segs[j] {
-			n0, n1 := base+seg[0], base+seg[1]
-			if s.mrt != nil {
-				s.runMRT(n0, n1, rc)
-			} else {
-				s.runTRT(n0, n1, rc)
-			}
+			s.sweep(base+seg[0], base+seg[1], &s.rows[j], nil, 0)
 		}
 	}
 }
 
-// runTRT streams and collides nodes [n0, n1) of one row with TRT (or BGK).
-// The slices are cut to the run's length so that the loop needs no bounds
-// checks.
-func (s *Solver) runTRT(n0, n1 int, rc *rowConst) {
+// sweep streams nodes [n0, n1) of one row and either collides them into
+// lattice b or, when obs is not nil, only stores their moments in obs from
+// index o0 on. The slices are cut to the run's length so that the loop needs
+// no bounds checks; the moments and the TRT collision are written out in
+// the loop (the Go compiler does not inline them), and are the same
+// arithmetic as macro and collideTRT, which the tests compare.
+func (s *Solver) sweep(n0, n1 int, rc *rowConst, obs *Fields, o0 int) {
 	a, b, o := &s.a, &s.b, &s.off
 	n := n1 - n0
 	a0 := a[0][n0-o[0] : n1-o[0]]
@@ -44,26 +41,87 @@ func (s *Solver) runTRT(n0, n1 int, rc *rowConst) {
 	b7 := b[7][n0:n1][:n]
 	b8 := b[8][n0:n1][:n]
 	gz, gr, wp, wm, nIter := s.gz, s.gr, s.wp, s.wm, s.nIter
+	invR, nuInvR2 := rc.invR, rc.nuInvR2
+	hoop := 1 / (1 + nuInvR2) // implicit hoop term, METHODS.md eq. 3.5
+	c1 := 1 - 0.5*wp
+	cp, cm := 1-0.5*wp, 1-0.5*wm
+	const w0, w1, w5 = 4.0 / 9, 1.0 / 9, 1.0 / 36
+	mrt := s.mrt
 	for x := range a0 {
-		d := [Q]float64{a0[x], a1[x], a2[x], a3[x], a4[x], a5[x], a6[x], a7[x], a8[x]}
-		m := macro(&d, rc, gz, gr, wp, nIter)
-		collideTRT(&d, &m, wp, wm)
-		b0[x], b1[x], b2[x], b3[x], b4[x] = d[0], d[1], d[2], d[3], d[4]
-		b5[x], b6[x], b7[x], b8[x] = d[5], d[6], d[7], d[8]
-	}
-}
+		d0, d1, d2, d3, d4 := a0[x], a1[x], a2[x], a3[x], a4[x]
+		d5, d6, d7, d8 := a5[x], a6[x], a7[x], a8[x]
 
-// runMRT is runTRT with the MRT operator.
-func (s *Solver) runMRT(n0, n1 int, rc *rowConst) {
-	for n := n0; n < n1; n++ {
-		var d [Q]float64
-		for i := 0; i < Q; i++ {
-			d[i] = s.a[i][n-s.off[i]]
+		// Moments with half-step sources: see macro for the derivation.
+		drho0 := d0 + d1 + d2 + d3 + d4 + d5 + d6 + d7 + d8
+		jz := d1 - d3 + d5 - d6 - d7 + d8
+		jr := d2 - d4 + d5 + d6 - d7 - d8
+		rho := 1 + drho0
+		drho := drho0
+		inv := 1 / rho
+		uz := (jz + 0.5*gz) * inv
+		ur := (jr + 0.5*gr) * inv
+		fz, fr, theta := gz, gr, 0.0
+		if invR != 0 {
+			pzr := d5 - d6 + d7 - d8
+			prr := d2 + d4 + d5 + d6 + d7 + d8
+			for it := 0; it < nIter; it++ {
+				th := -rho * ur * invR
+				szr := -c1 * (pzr - rho*uz*ur + 0.5*(fz*ur+uz*fr))
+				srr := -c1 * (prr - drho*Cs2 - rho*ur*ur + fr*ur + 0.5*Cs2*th)
+				nfz := gz + th*uz + szr*invR
+				frE := gr + th*ur + srr*invR
+				theta = th
+				drho = drho0 + 0.5*th
+				rho = 1 + drho
+				inv = 1 / rho
+				uz = (jz + 0.5*nfz) * inv
+				ur = (jr + 0.5*frE) * inv * hoop
+				fz = nfz
+				fr = frE - 2*rho*nuInvR2*ur
+			}
 		}
-		m := macro(&d, rc, s.gz, s.gr, s.wp, s.nIter)
-		collideMRT(&d, &m, s.mrt)
-		for i := 0; i < Q; i++ {
-			s.b[i][n] = d[i]
+		if obs != nil {
+			obs.Rho[o0+x], obs.Uz[o0+x], obs.Ur[o0+x] = rho, uz, ur
+			continue
 		}
+		if mrt != nil {
+			d := [Q]float64{d0, d1, d2, d3, d4, d5, d6, d7, d8}
+			m := moments{drho: drho, rho: rho, uz: uz, ur: ur, fz: fz, fr: fr, theta: theta}
+			collideMRT(&d, &m, mrt)
+			b0[x], b1[x], b2[x], b3[x], b4[x] = d[0], d[1], d[2], d[3], d[4]
+			b5[x], b6[x], b7[x], b8[x] = d[5], d[6], d[7], d[8]
+			continue
+		}
+
+		// TRT collision (collideTRT written out).
+		usq := uz*uz + ur*ur
+		base := drho - 1.5*rho*usq
+		sbase := theta - 3*(uz*fz+ur*fr)
+		b0[x] = d0 - wp*(d0-w0*base) + cp*w0*sbase
+
+		// pair (1,3): e = (1,0)
+		eu, ef := uz, fz
+		fp, fm := 0.5*(d1+d3), 0.5*(d1-d3)
+		relS := -wp*(fp-w1*(base+4.5*rho*eu*eu)) + cp*w1*(sbase+9*eu*ef)
+		relA := -wm*(fm-w1*3*rho*eu) + cm*w1*3*ef
+		b1[x], b3[x] = d1+relS+relA, d3+relS-relA
+		// pair (2,4): e = (0,1)
+		eu, ef = ur, fr
+		fp, fm = 0.5*(d2+d4), 0.5*(d2-d4)
+		relS = -wp*(fp-w1*(base+4.5*rho*eu*eu)) + cp*w1*(sbase+9*eu*ef)
+		relA = -wm*(fm-w1*3*rho*eu) + cm*w1*3*ef
+		b2[x], b4[x] = d2+relS+relA, d4+relS-relA
+		// pair (5,7): e = (1,1)
+		eu, ef = uz+ur, fz+fr
+		fp, fm = 0.5*(d5+d7), 0.5*(d5-d7)
+		relS = -wp*(fp-w5*(base+4.5*rho*eu*eu)) + cp*w5*(sbase+9*eu*ef)
+		relA = -wm*(fm-w5*3*rho*eu) + cm*w5*3*ef
+		b5[x], b7[x] = d5+relS+relA, d7+relS-relA
+		// pair (6,8): e = (-1,1)
+		eu, ef = ur-uz, fr-fz
+		fp, fm = 0.5*(d6+d8), 0.5*(d6-d8)
+		relS = -wp*(fp-w5*(base+4.5*rho*eu*eu)) + cp*w5*(sbase+9*eu*ef)
+		relA = -wm*(fm-w5*3*rho*eu) + cm*w5*3*ef
+		b6[x], b8[x] = d6+relS+relA, d8+relS-relA
 	}
 }

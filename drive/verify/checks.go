@@ -20,6 +20,8 @@ func Checks() []Check {
 		{Name: "mass-planar", Run: checkMassPlanar},
 		{Name: "mass-axisymmetric", Run: checkMass3D},
 		{Name: "determinism", Run: checkDeterminism},
+		{Name: "shaken-closed-cell", Run: checkShakenClosed},
+		{Name: "shaken-periodic-tube", Run: checkShakenPeriodic},
 		{Name: "womersley-fine", Full: true, Run: checkWomersleyFine},
 	}
 }

@@ -51,15 +51,23 @@ func (r Row) Status() string {
 
 // WriteTable prints rows as an aligned table with a header.
 func WriteTable(w io.Writer, rows []Row) error {
-	var b strings.Builder
-	fmt.Fprintf(&b, "%-26s %-34s %13s %13s %10s %10s %-5s %-4s  %s\n",
+	h := fmt.Sprintf("%-26s %-36s %13s %13s %10s %10s %-5s %-4s  %s\n",
 		"case", "quantity", "computed", "reference", "error", "tolerance", "unit", "", "source")
+	if _, err := io.WriteString(w, h); err != nil {
+		return err
+	}
+	return WriteRows(w, rows)
+}
+
+// WriteRows prints rows aligned as by WriteTable, without the header.
+func WriteRows(w io.Writer, rows []Row) error {
+	var b strings.Builder
 	for _, r := range rows {
 		ref := fmt.Sprintf("%13.6g", r.Reference)
 		if r.Unit == "bound" {
 			ref = fmt.Sprintf("%13s", "-")
 		}
-		fmt.Fprintf(&b, "%-26s %-34s %13.6g %s %10.3g %10.3g %-5s %-4s  %s\n",
+		fmt.Fprintf(&b, "%-26s %-36s %13.6g %s %10.3g %10.3g %-5s %-4s  %s\n",
 			r.Case, r.Quantity, r.Computed, ref, r.Error, r.Tolerance, r.Unit, r.Status(), r.Source)
 	}
 	_, err := io.WriteString(w, b.String())

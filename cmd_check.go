@@ -1,0 +1,124 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"time"
+
+	"axiswim/cases"
+	"axiswim/drive"
+)
+
+func cmdCheck(args []string, stdout, stderr io.Writer) error {
+	fs := newFlags("check", stderr)
+	threads := fs.Int("threads", 0, "goroutines for the timed sample (0: all cores)")
+	fs.Usage = func() {
+		fmt.Fprintln(stderr, "usage: axiswim check [-threads N] CASE.toml")
+		fmt.Fprintln(stderr, "Validates the case, prints its groups and lattice, and times a short sample.")
+		fs.PrintDefaults()
+	}
+	if err := parseFlags(fs, args); err != nil {
+		return err
+	}
+	if fs.NArg() != 1 {
+		return fmt.Errorf("%w: give one case file (see 'axiswim cases' for examples)", errUsage)
+	}
+	c, err := cases.Load(fs.Arg(0))
+	if err != nil {
+		return err
+	}
+	if err := c.Validate(); err != nil {
+		var ps cases.Problems
+		if errors.As(err, &ps) {
+			fmt.Fprintf(stdout, "%s: %d problem(s):\n", fs.Arg(0), len(ps))
+			for _, p := range ps {
+				fmt.Fprintf(stdout, "  %s\n", p.Error())
+			}
+			return fmt.Errorf("%s is not a valid case", fs.Arg(0))
+		}
+		return err
+	}
+	l, err := cases.Resolve(c)
+	if err != nil {
+		return err
+	}
+	fmt.Fprintf(stdout, "%s is valid", fs.Arg(0))
+	if c.Run.Title != "" {
+		fmt.Fprintf(stdout, ": %s", c.Run.Title)
+	}
+	fmt.Fprintln(stdout)
+
+	if gs := c.Groups(l); len(gs) > 0 {
+		fmt.Fprintln(stdout, "\ndimensionless groups (A = container amplitude):")
+		fmt.Fprintf(stdout, "  %-7s %10s %10s %10s %10s %12s %12s\n", "sphere", "eps=A/a", "M^2", "Re", "Re_s", "delta (m)", "delta/dx")
+		for _, g := range gs {
+			fmt.Fprintf(stdout, "  %-7d %10.4g %10.4g %10.4g %10.4g %12.4g %12.3g\n",
+				g.Sphere, g.Epsilon, g.M2, g.Re, g.ReS, g.Delta, g.DeltaCells)
+		}
+	}
+
+	fmt.Fprintln(stdout, "\nlattice:")
+	fmt.Fprintf(stdout, "  grid            %d x %d cells (z x r), %d nodes\n", l.Nz, l.Nr, l.Nz*l.Nr)
+	fmt.Fprintf(stdout, "  cell size       %.5g m (container %.5g m long, %.5g m radius as resolved)\n", l.Dx, l.Length, l.Radius)
+	fmt.Fprintf(stdout, "  time step       %.5g s, set by the %s limit\n", l.Dt, l.Bound)
+	fmt.Fprintf(stdout, "  tau             %.5f (lattice viscosity %.5g)\n", l.Tau, l.NuL)
+	if l.StepsPerPeriod > 0 {
+		fmt.Fprintf(stdout, "  steps/period    %d\n", l.StepsPerPeriod)
+	}
+	fmt.Fprintf(stdout, "  steps           %d (%.3g cell updates)\n", l.Steps, float64(l.Steps)*float64(l.Nz*l.Nr))
+	fmt.Fprintf(stdout, "  expected Mach   %.3g (reference speed %.3g m/s)\n", l.Mach, l.RefVelocity)
+	fmt.Fprintf(stdout, "  acoustic He     %.3g (radial %.3g); grid Reynolds %.3g\n", l.He, l.HeRadial, l.ReGrid)
+	if l.StokesCells > 0 {
+		fmt.Fprintf(stdout, "  Stokes layer    %.3g cells\n", l.StokesCells)
+	}
+	limit, src := cases.MemoryLimit()
+	fmt.Fprintf(stdout, "  memory          %s (limit %s, %s)\n", bytesString(l.MemoryBytes()), bytesString(limit), src)
+
+	// Timed sample: a few steps of the real solver.
+	sim, err := drive.New(c, l, *threads)
+	if err != nil {
+		return err
+	}
+	defer sim.Close()
+	sim.Advance(3) // warm up
+	n := 0
+	start := time.Now()
+	for time.Since(start) < 500*time.Millisecond && n < l.Steps {
+		sim.Advance(10)
+		n += 10
+	}
+	per := time.Since(start).Seconds() / float64(n)
+	est := time.Duration(per * float64(l.Steps) * float64(time.Second))
+	fmt.Fprintf(stdout, "  run time        about %s on %d goroutine(s) (%.3g MLUPS over a %d-step sample)\n",
+		roundDuration(est), sim.Fluid.Threads(), float64(l.Nz*l.Nr)/per/1e6, n)
+
+	if len(l.Warnings) > 0 {
+		fmt.Fprintln(stdout, "\nwarnings:")
+		for _, w := range l.Warnings {
+			fmt.Fprintf(stdout, "  %s\n", w)
+		}
+	}
+	return nil
+}
+
+func bytesString(b int64) string {
+	switch {
+	case b >= 1<<30:
+		return fmt.Sprintf("%.2f GiB", float64(b)/(1<<30))
+	case b >= 1<<20:
+		return fmt.Sprintf("%.1f MiB", float64(b)/(1<<20))
+	}
+	return fmt.Sprintf("%.0f KiB", math.Ceil(float64(b)/(1<<10)))
+}
+
+func roundDuration(d time.Duration) time.Duration {
+	switch {
+	case d > time.Hour:
+		return d.Round(time.Minute)
+	case d > time.Minute:
+		return d.Round(time.Second)
+	}
+	return d.Round(100 * time.Millisecond)
+}

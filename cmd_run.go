@@ -1,0 +1,133 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"os/signal"
+	"path/filepath"
+	"strings"
+	"syscall"
+
+	"axiswim/cases"
+	"axiswim/drive"
+)
+
+// errStopped marks a run interrupted by a signal.
+var errStopped = errors.New("stopped by a signal")
+
+func newFlags(name string, stderr io.Writer) *flag.FlagSet {
+	fs := flag.NewFlagSet("axiswim "+name, flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	return fs
+}
+
+// parseFlags parses args, turning a flag error into a usage error.
+func parseFlags(fs *flag.FlagSet, args []string) error {
+	if err := fs.Parse(args); err != nil {
+		if errors.Is(err, flag.ErrHelp) {
+			return nil
+		}
+		return fmt.Errorf("%w: %v", errUsage, err)
+	}
+	return nil
+}
+
+// loadCase reads a case file, or the embedded demo when path is empty, and
+// resolves it to lattice units. It returns the case's short name.
+func loadCase(path string) (*cases.Case, *cases.Lattice, string, error) {
+	var c *cases.Case
+	var err error
+	name := "demo"
+	if path == "" {
+		src, gerr := cases.Get("demo")
+		if gerr != nil {
+			return nil, nil, "", gerr
+		}
+		c, err = cases.Parse("demo (embedded)", src)
+	} else {
+		name = strings.TrimSuffix(filepath.Base(path), filepath.Ext(path))
+		c, err = cases.Load(path)
+	}
+	if err != nil {
+		return nil, nil, "", err
+	}
+	l, err := cases.Resolve(c)
+	if err != nil {
+		return nil, nil, "", err
+	}
+	return c, l, name, nil
+}
+
+// freshDir returns runs/NAME, or runs/NAME-2, -3, ... if that is taken, so
+// that a run without -out never touches an earlier run's files.
+func freshDir(name string) string {
+	base := filepath.Join("runs", name)
+	dir := base
+	for i := 2; ; i++ {
+		entries, err := os.ReadDir(dir)
+		if err != nil || len(entries) == 0 {
+			return dir
+		}
+		dir = fmt.Sprintf("%s-%d", base, i)
+	}
+}
+
+func cmdRun(args []string, stdout, stderr io.Writer) error {
+	fs := newFlags("run", stderr)
+	out := fs.String("out", "", "run directory (default runs/NAME, a fresh one each run)")
+	threads := fs.Int("threads", 0, "goroutines for the solver (0: all cores)")
+	quiet := fs.Bool("quiet", false, "no progress output")
+	force := fs.Bool("force", false, "replace files in a non-empty -out directory")
+	fs.Usage = func() {
+		fmt.Fprintln(stderr, "usage: axiswim run [-out DIR] [-threads N] [-quiet] [-force] [CASE.toml]")
+		fmt.Fprintln(stderr, "With no case file, runs the embedded demo ('axiswim cases demo' prints it).")
+		fs.PrintDefaults()
+	}
+	if err := parseFlags(fs, args); err != nil || fs.NArg() > 1 {
+		if err == nil {
+			err = fmt.Errorf("%w: one case file at most, got %q", errUsage, fs.Args())
+		}
+		return err
+	}
+	if *threads < 0 {
+		return fmt.Errorf("%w: -threads %d: give 0 (all cores) or a positive number", errUsage, *threads)
+	}
+	c, l, name, err := loadCase(fs.Arg(0))
+	if err != nil {
+		return err
+	}
+	dir := *out
+	if dir == "" {
+		dir = freshDir(name)
+	}
+	for _, w := range l.Warnings {
+		fmt.Fprintf(stderr, "warning: %s\n", w)
+	}
+	if !*quiet {
+		fmt.Fprintf(stderr, "case %s: %dx%d cells, dx = %.4g m, dt = %.4g s, tau = %.4f (time step set by the %s limit), %d steps\n",
+			name, l.Nz, l.Nr, l.Dx, l.Dt, l.Tau, l.Bound, l.Steps)
+		fmt.Fprintf(stderr, "writing to %s\n", dir)
+	}
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	defer stop()
+	sum, err := drive.Run(ctx, c, l, drive.Options{Out: dir, Force: *force, Threads: *threads, Quiet: *quiet, Log: stderr})
+	if err != nil {
+		return err
+	}
+	fmt.Fprintf(stdout, "%s: %d steps, %.4g s simulated in %.1f s wall (%.1f MLUPS)\n",
+		dir, sum.Steps, sum.SimulatedTime, sum.WallTime, sum.MLUPS)
+	fmt.Fprintf(stdout, "  final max liquid speed %.4g m/s, max Mach %.3g, max mass drift %.2g\n",
+		sum.FinalMaxSpeed, sum.MaxMach, sum.MaxMassDrift)
+	for _, w := range sum.Warnings {
+		fmt.Fprintf(stdout, "  note: %s\n", w)
+	}
+	fmt.Fprintf(stdout, "  files: case.toml (the case as resolved), series.csv (time series), summary.json\n")
+	if sum.Interrupted {
+		return fmt.Errorf("%w after %d steps; the files written so far are in %s", errStopped, sum.Steps, dir)
+	}
+	return nil
+}

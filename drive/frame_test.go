@@ -1,0 +1,28 @@
+package drive
+
+import (
+	"math"
+	"testing"
+)
+
+// TestShakerDerivatives checks that Velocity and Acceleration are the time
+// derivatives of Displacement (central differences, error O(h^2)), through
+// the ramp and after it.
+func TestShakerDerivatives(t *testing.T) {
+	s := Shaker{Amplitude: 6e-4, Omega: 2 * math.Pi * 35, Ramp: 2 / 35.0}
+	const h = 1e-7
+	for _, tm := range []float64{0.001, 0.013, 0.03, 0.056, 0.2} {
+		v := (s.Displacement(tm+h) - s.Displacement(tm-h)) / (2 * h)
+		a := (s.Velocity(tm+h) - s.Velocity(tm-h)) / (2 * h)
+		// relative to the amplitudes A omega and A omega^2; h^2 omega^2 ~ 5e-10
+		if e := math.Abs(v-s.Velocity(tm)) / (s.Amplitude * s.Omega); e > 1e-6 {
+			t.Errorf("t=%g: velocity off by %g of A omega", tm, e)
+		}
+		if e := math.Abs(a-s.Acceleration(tm)) / (s.Amplitude * s.Omega * s.Omega); e > 1e-6 {
+			t.Errorf("t=%g: acceleration off by %g of A omega^2", tm, e)
+		}
+	}
+	if s.Displacement(0) != 0 || s.Velocity(0) != 0 {
+		t.Error("the ramp must start from rest")
+	}
+}

@@ -1,0 +1,142 @@
+package drive
+
+import (
+	"fmt"
+	"math"
+
+	"axiswim/cases"
+	"axiswim/lbm"
+)
+
+// Simulation is a case set up on a lattice, ready to step.
+type Simulation struct {
+	Case    *cases.Case
+	Lattice *cases.Lattice
+	Fluid   *lbm.Solver
+	Shaker  Shaker
+
+	// FrameOnLiquid is true when the frame force and gravity act on the
+	// liquid as a body force (periodic ends); false when they are absorbed
+	// into the modified pressure (closed ends).
+	FrameOnLiquid bool
+
+	fields *lbm.Fields
+	mass0  float64
+}
+
+// New sets up the case c on the lattice l with the given number of
+// goroutines (0: all cores).
+func New(c *cases.Case, l *cases.Lattice, threads int) (*Simulation, error) {
+	col, ok := lbm.ParseCollision(c.Solver.Collision)
+	if !ok {
+		return nil, fmt.Errorf("solver.collision = %q: unknown operator", c.Solver.Collision)
+	}
+	periodic := c.Container.Ends == cases.EndsPeriodic
+	fl, err := lbm.New(lbm.Config{
+		Nz: l.Nz, Nr: l.Nr, Tau: l.Tau, Collision: col, Magic: c.Solver.Magic,
+		Axisymmetric: true, PeriodicZ: periodic, Threads: threads,
+	})
+	if err != nil {
+		return nil, fmt.Errorf("set up the lattice: %w", err)
+	}
+	s := &Simulation{Case: c, Lattice: l, Fluid: fl, FrameOnLiquid: periodic}
+	if f := c.Shaking.Frequency; f > 0 {
+		s.Shaker = Shaker{Amplitude: c.Shaking.Amplitude, Omega: 2 * math.Pi * f, Ramp: c.Shaking.RampPeriods / f}
+	}
+	s.fields = fl.Fields(nil)
+	s.mass0 = fl.Mass3D(s.fields)
+	return s, nil
+}
+
+// Setup resolves c to lattice units and sets it up.
+func Setup(c *cases.Case, threads int) (*Simulation, error) {
+	l, err := cases.Resolve(c)
+	if err != nil {
+		return nil, err
+	}
+	return New(c, l, threads)
+}
+
+// Close releases the solver's goroutines.
+func (s *Simulation) Close() { s.Fluid.Close() }
+
+// Step returns the number of lattice steps taken.
+func (s *Simulation) Step() int64 { return s.Fluid.Steps() }
+
+// Time returns the physical time of the current state in seconds.
+func (s *Simulation) Time() float64 { return float64(s.Fluid.Steps()) * s.Lattice.Dt }
+
+// liquidForce returns the lattice body-force density on the liquid at time
+// t: in the container frame the liquid feels -rho_f (a(t) + g) along z,
+// which is applied only when FrameOnLiquid (see the package comment).
+// F_L = F dt^2/(rho_f dx) (METHODS.md 1.4).
+func (s *Simulation) liquidForce(t float64) float64 {
+	if !s.FrameOnLiquid {
+		return 0
+	}
+	l := s.Lattice
+	a := s.Shaker.Acceleration(t) + s.Case.Shaking.Gravity
+	return -a * l.Dt * l.Dt / l.Dx
+}
+
+// Advance takes n lattice steps.
+func (s *Simulation) Advance(n int) {
+	for i := 0; i < n; i++ {
+		s.Fluid.SetForce(s.liquidForce(s.Time()), 0)
+		s.Fluid.Step()
+	}
+}
+
+// Observation is the state of the liquid at one time, in SI units.
+type Observation struct {
+	Time              float64 // s
+	DriveDisplacement float64 // m
+	DriveVelocity     float64 // m/s
+	DriveAcceleration float64 // m/s^2
+	MaxSpeed          float64 // m/s, in the container frame
+	Mach              float64 // max lattice speed / c_s
+	MeanAxialVelocity float64 // m/s, volume average of u_z
+	MassDrift         float64 // relative change of the 3D mass
+	Finite            bool    // no NaN or Inf in the fields
+}
+
+// Observe computes the liquid's observables at the current time.
+func (s *Simulation) Observe() Observation {
+	t := s.Time()
+	s.Fluid.SetForce(s.liquidForce(t), 0)
+	s.fields = s.Fluid.Fields(s.fields)
+	f := s.fields
+	var umax2, flux, vol float64
+	finite := true
+	for j := 0; j < f.Nr; j++ {
+		r := float64(j) + 0.5
+		for k := 0; k < f.Nz; k++ {
+			o := f.At(k, j)
+			uz, ur := f.Uz[o], f.Ur[o]
+			u2 := uz*uz + ur*ur
+			if math.IsNaN(u2) || math.IsInf(u2, 0) {
+				finite = false
+			}
+			umax2 = math.Max(umax2, u2)
+			flux += r * uz
+			vol += r
+		}
+	}
+	l := s.Lattice
+	c := l.Dx / l.Dt
+	umax := math.Sqrt(umax2)
+	return Observation{
+		Time:              t,
+		DriveDisplacement: s.Shaker.Displacement(t),
+		DriveVelocity:     s.Shaker.Velocity(t),
+		DriveAcceleration: s.Shaker.Acceleration(t),
+		MaxSpeed:          umax * c,
+		Mach:              umax / math.Sqrt(lbm.Cs2),
+		MeanAxialVelocity: flux / vol * c,
+		MassDrift:         s.Fluid.Mass3D(f)/s.mass0 - 1,
+		Finite:            finite,
+	}
+}
+
+// Fields returns the fields of the last Observe.
+func (s *Simulation) Fields() *lbm.Fields { return s.fields }

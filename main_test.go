@@ -1,0 +1,109 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+func run(t *testing.T, args ...string) (code int, stdout, stderr string) {
+	t.Helper()
+	var o, e bytes.Buffer
+	code = dispatch(args, &o, &e)
+	return code, o.String(), e.String()
+}
+
+func TestHelpListsCommands(t *testing.T) {
+	code, out, _ := run(t, "help")
+	if code != exitOK {
+		t.Fatalf("exit %d", code)
+	}
+	for _, c := range []string{"run", "check", "verify", "cases"} {
+		if !strings.Contains(out, "axiswim "+c) {
+			t.Errorf("help does not list %q:\n%s", c, out)
+		}
+	}
+	if code, _, _ := run(t, "frobnicate"); code != exitUsage {
+		t.Errorf("unknown command: exit %d, want %d", code, exitUsage)
+	}
+}
+
+// TestCheckTypo: a misspelt key is reported with its line and the nearest
+// valid key, and check fails.
+func TestCheckTypo(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "bad.toml")
+	src := "[fluid]\ndensity = 1000.0\nviscocity = 0.001\n\n[container]\nradius = 0.01\nlength = 0.04\n\n[grid]\ncell_size = 0.001\n\n[run]\nduration = 0.1\n"
+	if err := os.WriteFile(path, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, _, errOut := run(t, "check", path)
+	if code == exitOK {
+		t.Fatal("check accepted a misspelt key")
+	}
+	for _, want := range []string{"viscocity", "line 3", "viscosity"} {
+		if !strings.Contains(errOut, want) {
+			t.Errorf("error does not mention %q:\n%s", want, errOut)
+		}
+	}
+}
+
+// TestRunPipe runs the embedded Poiseuille case, checks its files, and
+// checks that a second run into the same directory is refused.
+func TestRunPipe(t *testing.T) {
+	dir := t.TempDir()
+	src, err := os.ReadFile("cases/examples/pipe-poiseuille.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	cs := filepath.Join(dir, "pipe.toml")
+	if err := os.WriteFile(cs, src, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(dir, "out")
+	if code, _, e := run(t, "run", "-quiet", "-out", out, cs); code != exitOK {
+		t.Fatalf("run: exit %d: %s", code, e)
+	}
+	for _, f := range []string{"case.toml", "series.csv", "summary.json"} {
+		if _, err := os.Stat(filepath.Join(out, f)); err != nil {
+			t.Errorf("missing %s: %v", f, err)
+		}
+	}
+	var sum struct {
+		Completed   bool    `json:"completed"`
+		FinalMaxSpd float64 `json:"final_max_speed_m_s"`
+	}
+	data, _ := os.ReadFile(filepath.Join(out, "summary.json"))
+	if err := json.Unmarshal(data, &sum); err != nil {
+		t.Fatal(err)
+	}
+	// Hagen-Poiseuille centre speed g R^2/(4 nu) with g = 9.81, R = 2 mm,
+	// nu = 1/1260 m^2/s; after four viscous times the start-up is complete
+	// to exp(-23) (Szymanski 1932). The node nearest the axis is at r = dx/2,
+	// 1/1600 of R^2 lower, inside the 0.1% tolerance.
+	want := 9.81 * 0.002 * 0.002 / (4 * (1.0 / 1260))
+	if !sum.Completed || sum.FinalMaxSpd < want*0.999 || sum.FinalMaxSpd > want*1.001 {
+		t.Errorf("summary: completed %v, max speed %g, want %g (0.1%%)", sum.Completed, sum.FinalMaxSpd, want)
+	}
+	// The resolved case runs as it is.
+	if code, _, e := run(t, "check", filepath.Join(out, "case.toml")); code != exitOK {
+		t.Errorf("resolved case does not check: %s", e)
+	}
+	code, _, e := run(t, "run", "-quiet", "-out", out, cs)
+	if code == exitOK || !strings.Contains(e, "not empty") {
+		t.Errorf("second run into %s: exit %d, %q; want a refusal", out, code, e)
+	}
+}
+
+func TestCasesPrintsDemo(t *testing.T) {
+	code, out, _ := run(t, "cases", "demo")
+	if code != exitOK || !strings.Contains(out, "[[sphere]]") {
+		t.Errorf("cases demo: exit %d\n%s", code, out)
+	}
+	if code, _, _ := run(t, "cases", "no-such-case"); code != exitUsage {
+		t.Errorf("unknown case: exit %d", code)
+	}
+}

@@ -1,0 +1,69 @@
+package output
+
+import (
+	"errors"
+	"fmt"
+	"io/fs"
+	"os"
+	"path/filepath"
+)
+
+// RunDir prepares dir to receive a run's files. A missing directory is
+// created; an existing empty one is used; an existing non-empty one is
+// refused unless force is set, in which case files of the same name are
+// replaced and any others left alone.
+func RunDir(dir string, force bool) error {
+	entries, err := os.ReadDir(dir)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		if err := os.MkdirAll(dir, 0o755); err != nil {
+			return fmt.Errorf("output directory %s: %w", dir, err)
+		}
+		return nil
+	case err != nil:
+		return fmt.Errorf("output directory %s: %w", dir, err)
+	}
+	if len(entries) > 0 && !force {
+		return fmt.Errorf("output directory %s is not empty (it holds %s%s); "+
+			"choose another with -out DIR, or add -force to replace files of the same name",
+			dir, entries[0].Name(), more(len(entries)))
+	}
+	// Check that we can write there.
+	probe, err := os.CreateTemp(dir, ".axiswim-probe-*")
+	if err != nil {
+		return fmt.Errorf("output directory %s is not writable: %w", dir, err)
+	}
+	name := probe.Name()
+	probe.Close()
+	return os.Remove(name)
+}
+
+func more(n int) string {
+	if n <= 1 {
+		return ""
+	}
+	return fmt.Sprintf(" and %d more", n-1)
+}
+
+// WriteFileAtomic writes data to path through a temporary file in the same
+// directory, synced and then renamed, so that a reader never sees a
+// half-written file and an interruption leaves the old file intact.
+func WriteFileAtomic(path string, data []byte) error {
+	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp-*")
+	if err != nil {
+		return fmt.Errorf("write %s: %w", path, err)
+	}
+	name := tmp.Name()
+	_, werr := tmp.Write(data)
+	serr := tmp.Sync()
+	cerr := tmp.Close()
+	if err := errors.Join(werr, serr, cerr); err != nil {
+		os.Remove(name)
+		return fmt.Errorf("write %s: %w", path, err)
+	}
+	if err := os.Rename(name, path); err != nil {
+		os.Remove(name)
+		return fmt.Errorf("write %s: %w", path, err)
+	}
+	return nil
+}
