@@ -27,6 +27,7 @@ func (s *Solver) Fields(dst *Fields) *Fields {
 		dst = NewFields(s.nz, s.nr)
 	}
 	s.fillHalo(&s.a)
+	s.boundaryPass(false)
 	s.pool.run(func(lo, hi, _ int) {
 		for j := lo; j < hi; j++ {
 			row := dst.At(0, j)

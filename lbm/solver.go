@@ -25,6 +25,7 @@ type Solver struct {
 	pool   *pool
 	rowSum []float64 // per-row partial sums for deterministic reductions
 	kernel func(lo, hi, w int)
+	bodies []*Boundary // moving bodies, by id
 }
 
 // rowConst holds what the axisymmetric terms need of a row: 1/r and
@@ -106,6 +107,7 @@ func (s *Solver) idx(k, j int) int { return (j+1)*s.w + k + 1 }
 // the previous post-collision state (walls, axis, ends) and collides.
 func (s *Solver) Step() {
 	s.fillHalo(&s.a)
+	s.boundaryPass(true)
 	s.pool.run(s.kernel)
 	s.a, s.b = s.b, s.a
 	s.steps++

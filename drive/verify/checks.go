@@ -22,7 +22,13 @@ func Checks() []Check {
 		{Name: "determinism", Run: checkDeterminism},
 		{Name: "shaken-closed-cell", Run: checkShakenClosed},
 		{Name: "shaken-periodic-tube", Run: checkShakenPeriodic},
+		{Name: "sphere-uniform-pressure", Run: checkUniformPressure},
+		{Name: "sphere-translating", Run: checkTranslating},
+		{Name: "sphere-oscillating", Run: checkOscillating},
+		{Name: "sphere-wake", Run: checkWake},
+		{Name: "determinism-moving-sphere", Run: checkDeterminismBodies},
 		{Name: "womersley-fine", Full: true, Run: checkWomersleyFine},
+		{Name: "sphere-translating-fine", Full: true, Run: checkTranslatingFine},
 	}
 }
 
