@@ -82,11 +82,15 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 		return err
 	}
 	defer sim.Close()
-	sim.Advance(3) // warm up
+	if err := sim.Advance(3); err != nil { // warm up
+		return fmt.Errorf("timed sample: %w", err)
+	}
 	n := 0
 	start := time.Now()
 	for time.Since(start) < 500*time.Millisecond && n < l.Steps {
-		sim.Advance(10)
+		if err := sim.Advance(10); err != nil {
+			return fmt.Errorf("timed sample: %w", err)
+		}
 		n += 10
 	}
 	per := time.Since(start).Seconds() / float64(n)

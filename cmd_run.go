@@ -2,6 +2,7 @@ package main
 
 import (
 	"context"
+	"math"
 	"errors"
 	"flag"
 	"fmt"
@@ -115,19 +116,56 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
 	defer stop()
 	sum, err := drive.Run(ctx, c, l, drive.Options{Out: dir, Force: *force, Threads: *threads, Quiet: *quiet, Log: stderr})
+	if sum != nil {
+		printSummary(stdout, dir, sum)
+	}
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(stdout, "%s: %d steps, %.4g s simulated in %.1f s wall (%.1f MLUPS)\n",
-		dir, sum.Steps, sum.SimulatedTime, sum.WallTime, sum.MLUPS)
-	fmt.Fprintf(stdout, "  final max liquid speed %.4g m/s, max Mach %.3g, max mass drift %.2g\n",
-		sum.FinalMaxSpeed, sum.MaxMach, sum.MaxMassDrift)
-	for _, w := range sum.Warnings {
-		fmt.Fprintf(stdout, "  note: %s\n", w)
-	}
-	fmt.Fprintf(stdout, "  files: case.toml (the case as resolved), series.csv (time series), summary.json\n")
 	if sum.Interrupted {
 		return fmt.Errorf("%w after %d steps; the files written so far are in %s", errStopped, sum.Steps, dir)
 	}
 	return nil
+}
+
+// printSummary tells the user what the run found, in a few lines.
+func printSummary(w io.Writer, dir string, sum *drive.Summary) {
+	fmt.Fprintf(w, "%s: %d steps, %.4g s simulated in %.1f s wall (%.1f MLUPS)\n",
+		dir, sum.Steps, sum.SimulatedTime, sum.WallTime, sum.MLUPS)
+	if sum.MeanVelocity != nil {
+		u, du := *sum.MeanVelocity, *sum.MeanVelocityUncertainty
+		switch {
+		case *sum.Swimming:
+			fmt.Fprintf(w, "  swims along %s at %.3g +- %.2g m/s (sphere %d leads)", sum.Direction, math.Abs(u), du, *sum.LeadingSphere)
+		default:
+			fmt.Fprintf(w, "  does not swim measurably: mean speed %.3g +- %.2g m/s", u, du)
+		}
+		conv := "converged"
+		if !*sum.Converged {
+			conv = "NOT converged: run more periods"
+		}
+		fmt.Fprintf(w, " over the last %d periods, %s\n", sum.PeriodsAnalysed, conv)
+		if sum.NetDisplacement != nil {
+			fmt.Fprintf(w, "  net displacement of the centroid %.4g m over the whole run\n", *sum.NetDisplacement)
+		}
+		for _, c := range sum.Comparison {
+			if c.Ratio != 0 {
+				fmt.Fprintf(w, "  %-52s simulated %.4g, linear model %.4g (ratio %.3f)\n", c.Quantity, c.Simulated, c.Model, c.Ratio)
+			} else {
+				fmt.Fprintf(w, "  %-52s simulated %.4g, linear model %.4g\n", c.Quantity, c.Simulated, c.Model)
+			}
+		}
+	}
+	fmt.Fprintf(w, "  liquid: max Mach %.3g, max mass drift %.2g\n", sum.MaxMach, sum.MaxMassDrift)
+	for _, x := range sum.Warnings {
+		fmt.Fprintf(w, "  warning: %s\n", x)
+	}
+	if sum.Failure != "" {
+		fmt.Fprintf(w, "  FAILED: %s\n", sum.Failure)
+	}
+	files := "case.toml (the case as resolved), series.csv (time series), summary.json"
+	if sum.MeanVelocity != nil {
+		files = "case.toml (the case as resolved), series.csv (time series), periods.csv (per period), summary.json"
+	}
+	fmt.Fprintf(w, "  files: %s\n", files)
 }

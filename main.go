@@ -7,6 +7,7 @@
 //	axiswim check CASE.toml
 //	axiswim verify [-full]
 //	axiswim cases [NAME]
+//	axiswim model [-json] CASE.toml
 //	axiswim help
 package main
 
@@ -41,6 +42,7 @@ func commands() []command {
 		{"check", "CASE.toml", "validate a case and show its groups, lattice, memory and run-time estimate", cmdCheck},
 		{"verify", "[-full] [-threads N]", "run the verification cases against analytic and published values", cmdVerify},
 		{"cases", "[NAME]", "list the embedded example cases, or print one", cmdCases},
+		{"model", "[-json] CASE.toml", "solve the reduced linear model: sphere and spring amplitudes and phases", cmdModel},
 		{"help", "", "show this help", nil},
 	}
 }

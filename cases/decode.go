@@ -19,6 +19,8 @@ type rawCase struct {
 	Shaking   *rawShaking   `toml:"shaking"`
 	Sphere    []rawSphere   `toml:"sphere"`
 	Spring    []rawSpring   `toml:"spring"`
+	Arm       []rawArm      `toml:"arm"`
+	Bodies    *rawBodies    `toml:"bodies"`
 	Grid      *rawGrid      `toml:"grid"`
 	Solver    *rawSolver    `toml:"solver"`
 	Run       *rawRun       `toml:"run"`
@@ -36,10 +38,17 @@ type rawContainer struct {
 }
 
 type rawShaking struct {
-	Frequency   *float64 `toml:"frequency"`
-	Amplitude   *float64 `toml:"amplitude"`
-	RampPeriods *float64 `toml:"ramp_periods"`
-	Gravity     *float64 `toml:"gravity"`
+	Frequency   *float64      `toml:"frequency"`
+	Amplitude   *float64      `toml:"amplitude"`
+	RampPeriods *float64      `toml:"ramp_periods"`
+	Gravity     *float64      `toml:"gravity"`
+	Harmonic    []rawHarmonic `toml:"harmonic"`
+}
+
+type rawHarmonic struct {
+	Order     *int     `toml:"order"`
+	Amplitude *float64 `toml:"amplitude"`
+	Phase     *float64 `toml:"phase"`
 }
 
 type rawSphere struct {
@@ -53,6 +62,20 @@ type rawSpring struct {
 	Stiffness  *float64 `toml:"stiffness"`
 	RestLength *float64 `toml:"rest_length"`
 	Damping    *float64 `toml:"damping"`
+}
+
+type rawArm struct {
+	Spheres   *[2]int  `toml:"spheres"`
+	Length    *float64 `toml:"length"`
+	Amplitude *float64 `toml:"amplitude"`
+	Phase     *float64 `toml:"phase"`
+	Frequency *float64 `toml:"frequency"`
+}
+
+type rawBodies struct {
+	VirtualMass    *float64 `toml:"virtual_mass"`
+	Coupling       *string  `toml:"coupling"`
+	RepulsionRange *float64 `toml:"repulsion_range"`
 }
 
 type rawGrid struct {
@@ -195,6 +218,13 @@ func (r *rawCase) toCase() *Case {
 		set(&c.Shaking.Amplitude, s.Amplitude)
 		set(&c.Shaking.RampPeriods, s.RampPeriods)
 		set(&c.Shaking.Gravity, s.Gravity)
+		for _, rh := range s.Harmonic {
+			var h Harmonic
+			set(&h.Order, rh.Order)
+			set(&h.Amplitude, rh.Amplitude)
+			set(&h.Phase, rh.Phase)
+			c.Shaking.Harmonics = append(c.Shaking.Harmonics, h)
+		}
 	}
 	for _, rs := range r.Sphere {
 		var s Sphere
@@ -210,6 +240,20 @@ func (r *rawCase) toCase() *Case {
 		set(&s.RestLength, rs.RestLength)
 		set(&s.Damping, rs.Damping)
 		c.Springs = append(c.Springs, s)
+	}
+	for _, ra := range r.Arm {
+		var a Arm
+		set(&a.Spheres, ra.Spheres)
+		set(&a.Length, ra.Length)
+		set(&a.Amplitude, ra.Amplitude)
+		set(&a.Phase, ra.Phase)
+		set(&a.Frequency, ra.Frequency)
+		c.Arms = append(c.Arms, a)
+	}
+	if b := r.Bodies; b != nil {
+		set(&c.Bodies.VirtualMass, b.VirtualMass)
+		set(&c.Bodies.Coupling, b.Coupling)
+		set(&c.Bodies.RepulsionRange, b.RepulsionRange)
 	}
 	if g := r.Grid; g != nil {
 		set(&c.Grid.CellsPerRadius, g.CellsPerRadius)
@@ -237,8 +281,8 @@ func set[T any](dst *T, src *T) {
 }
 
 // missingKeys reports the unconditionally required keys that are absent.
-// The keys required only in some cases (periods, duration, cell_size) are
-// checked by Validate.
+// The keys required only in some cases (periods, duration, cell_size, the
+// frequency of an arm without shaking) are checked by Validate.
 func missingKeys(name string, r *rawCase, locs []keyLoc) KeyErrors {
 	var errs KeyErrors
 	miss := func(table, key string) {
@@ -280,6 +324,29 @@ func missingKeys(name string, r *rawCase, locs []keyLoc) KeyErrors {
 		}
 		if s.Stiffness == nil {
 			miss(t, "stiffness")
+		}
+	}
+	if r.Shaking != nil {
+		for i, h := range r.Shaking.Harmonic {
+			t := fmt.Sprintf("shaking.harmonic[%d]", i+1)
+			if h.Order == nil {
+				miss(t, "order")
+			}
+			if h.Amplitude == nil {
+				miss(t, "amplitude")
+			}
+		}
+	}
+	for i, a := range r.Arm {
+		t := fmt.Sprintf("arm[%d]", i+1)
+		if a.Spheres == nil {
+			miss(t, "spheres")
+		}
+		if a.Length == nil {
+			miss(t, "length")
+		}
+		if a.Amplitude == nil {
+			miss(t, "amplitude")
 		}
 	}
 	return errs

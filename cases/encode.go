@@ -38,6 +38,12 @@ func (c *Case) WriteTOML(w io.Writer) error {
 	e.float("amplitude", cc.Shaking.Amplitude, "m, container displacement amplitude")
 	e.float("ramp_periods", cc.Shaking.RampPeriods, "periods over which the amplitude is ramped up")
 	e.float("gravity", cc.Shaking.Gravity, "m/s^2 along -z")
+	for _, h := range cc.Shaking.Harmonics {
+		e.array("shaking.harmonic", "")
+		e.line("order = %d # multiple of the drive frequency", h.Order)
+		e.float("amplitude", h.Amplitude, "m")
+		e.float("phase", h.Phase, "degrees")
+	}
 
 	for i, s := range cc.Spheres {
 		e.array("sphere", fmt.Sprintf("sphere %d", i+1))
@@ -53,6 +59,24 @@ func (c *Case) WriteTOML(w io.Writer) error {
 		e.float("rest_length", s.RestLength, "m, centre to centre")
 		e.float("damping", s.Damping, "N s/m")
 	}
+
+	for _, a := range cc.Arms {
+		e.array("arm", "")
+		e.line("spheres = [%d, %d] # 1-based sphere indices", a.Spheres[0], a.Spheres[1])
+		e.float("length", a.Length, "m, mean centre-to-centre distance")
+		e.float("amplitude", a.Amplitude, "m, stroke amplitude")
+		e.float("phase", a.Phase, "degrees")
+		if a.Frequency != 0 {
+			e.float("frequency", a.Frequency, "Hz")
+		} else {
+			e.comment("frequency not given (required without shaking)")
+		}
+	}
+
+	e.table("bodies")
+	e.float("virtual_mass", cc.Bodies.VirtualMass, "virtual-mass coefficient C_V")
+	e.str("coupling", cc.Bodies.Coupling, `"virtual-mass" or "explicit"`)
+	e.float("repulsion_range", cc.Bodies.RepulsionRange, "cells")
 
 	e.table("grid")
 	if cc.Grid.CellsPerRadius != 0 {
@@ -100,6 +124,8 @@ func (c *Case) clone() *Case {
 	cc := *c
 	cc.Spheres = append([]Sphere(nil), c.Spheres...)
 	cc.Springs = append([]Spring(nil), c.Springs...)
+	cc.Arms = append([]Arm(nil), c.Arms...)
+	cc.Shaking.Harmonics = append([]Harmonic(nil), c.Shaking.Harmonics...)
 	return &cc
 }
 

@@ -12,13 +12,59 @@ func (c *Case) stokesSpeed(s Sphere) float64 {
 	return 2 * math.Abs(s.Density-c.Fluid.Density) * c.Shaking.Gravity * s.Radius * s.Radius / (9 * c.Fluid.Viscosity)
 }
 
+// driveSpeed is a bound on the container's speed, ω (A + Σ n A_n): the
+// velocity amplitude of the drive with its harmonics in phase.
+func (c *Case) driveSpeed() float64 {
+	s := c.Shaking
+	omega := 2 * math.Pi * s.Frequency
+	u := s.Amplitude * omega
+	for _, h := range s.Harmonics {
+		u += float64(h.Order) * omega * h.Amplitude
+	}
+	return u
+}
+
+// armFrequency is the frequency of arm a after defaulting (Hz).
+func (c *Case) armFrequency(a Arm) float64 {
+	if a.Frequency == 0 {
+		return c.Shaking.Frequency
+	}
+	return a.Frequency
+}
+
+// strokeSpeed is the velocity amplitude 2π f A of the stroke of arm a.
+func (c *Case) strokeSpeed(a Arm) float64 {
+	return 2 * math.Pi * c.armFrequency(a) * a.Amplitude
+}
+
+// maxForcingOmega is the highest angular frequency of the forcing: the
+// drive's, order x drive for each harmonic with a positive amplitude, and
+// each arm's (Lattice.OmegaMax). The arms count like the drive, whatever
+// their amplitude.
+func (c *Case) maxForcingOmega() float64 {
+	f := c.Shaking.Frequency
+	for _, h := range c.Shaking.Harmonics {
+		if h.Amplitude > 0 {
+			f = math.Max(f, float64(h.Order)*c.Shaking.Frequency)
+		}
+	}
+	for _, a := range c.Arms {
+		f = math.Max(f, c.armFrequency(a))
+	}
+	return 2 * math.Pi * f
+}
+
 // referenceSpeed is the speed scale U of the Mach limit (METHODS.md 10.1,
-// 11.2 step 3): the largest of the container velocity amplitude A ω, the
-// Stokes settling speed of each sphere when gravity is on, and, for
-// periodic ends with gravity, the Hagen–Poiseuille centre speed g R²/(4ν)
-// of the column falling freely through the pipe.
+// 11.2 step 3): the largest of the container speed bound ω (A + Σ n A_n),
+// the stroke speed 2π f A of each arm, the Stokes settling speed of each
+// sphere when gravity is on, and, for periodic ends with gravity, the
+// Hagen–Poiseuille centre speed g R²/(4ν) of the column falling freely
+// through the pipe.
 func (c *Case) referenceSpeed(nu float64) float64 {
-	u := c.Shaking.Amplitude * 2 * math.Pi * c.Shaking.Frequency
+	u := c.driveSpeed()
+	for _, a := range c.Arms {
+		u = math.Max(u, c.strokeSpeed(a))
+	}
 	if c.Shaking.Gravity != 0 {
 		for _, s := range c.Spheres {
 			u = math.Max(u, c.stokesSpeed(s))
@@ -32,16 +78,23 @@ func (c *Case) referenceSpeed(nu float64) float64 {
 }
 
 // wallSpeed is the largest expected speed of a sphere surface relative to
-// the container: the inviscid relative amplitude A |ρ_s - ρ_f|/(ρ_s + ρ_f/2)
-// (METHODS.md 11.1, added mass C_A = 1/2) times ω, plus the settling
-// speed. It is 0 without spheres.
+// the container: the container speed bound times the inviscid relative
+// amplitude ratio |ρ_s - ρ_f|/(ρ_s + ρ_f/2) (METHODS.md 11.1, added mass
+// C_A = 1/2), plus the settling speed, plus the fastest stroke of an arm
+// on the sphere. It is 0 without spheres.
 func (c *Case) wallSpeed() float64 {
-	omega := 2 * math.Pi * c.Shaking.Frequency
 	rf := c.Fluid.Density
+	u := c.driveSpeed()
 	v := 0.0
-	for _, s := range c.Spheres {
-		rel := c.Shaking.Amplitude * math.Abs(s.Density-rf) / (s.Density + rf/2)
-		v = math.Max(v, rel*omega+c.stokesSpeed(s))
+	for i, s := range c.Spheres {
+		stroke := 0.0
+		for _, a := range c.Arms {
+			if a.Spheres[0] == i+1 || a.Spheres[1] == i+1 {
+				stroke = math.Max(stroke, c.strokeSpeed(a))
+			}
+		}
+		rel := math.Abs(s.Density-rf) / (s.Density + rf/2)
+		v = math.Max(v, rel*u+c.stokesSpeed(s)+stroke)
 	}
 	return v
 }
@@ -70,7 +123,7 @@ func (c *Case) timeStepConflict(conflicts []string, nuMin, upper float64) error 
 		p.Fix += ", or shorten the container: the acoustic bound is inversely proportional to its longest side"
 	}
 	if strings.Contains(joined, "Mach") {
-		p.Fix += ", or lower the reference speed (shaking amplitude or frequency)"
+		p.Fix += ", or lower the reference speed (the amplitude or frequency of the shaking or of the arm strokes)"
 	}
 	p.Fix += "; or give grid.tau to accept the violation"
 	return Problems{p}
@@ -148,6 +201,7 @@ func (c *Case) warnings(l *Lattice) []string {
 			}
 		}
 	}
+	c.bodyWarnings(l, warn)
 	if l.StepsPerPeriod > 0 && c.Run.SamplesPerPeriod > l.StepsPerPeriod {
 		warn("run.samples_per_period = %d exceeds the %d steps per period: sampling every step",
 			c.Run.SamplesPerPeriod, l.StepsPerPeriod)
@@ -157,4 +211,53 @@ func (c *Case) warnings(l *Lattice) []string {
 			c.Run.SampleInterval, l.Dt)
 	}
 	return w
+}
+
+// bodyWarnings warns about the coupling of light spheres (METHODS.md 8.1,
+// 8.2), fast strokes and arms whose spheres do not start at the prescribed
+// distance.
+func (c *Case) bodyWarnings(l *Lattice, warn func(format string, args ...any)) {
+	rf := c.Fluid.Density
+	for i, s := range c.Spheres {
+		ratio := s.Density / rf
+		switch c.Bodies.Coupling {
+		case CouplingExplicit:
+			// The explicit update amplifies the acceleration by -m_A/m_p
+			// each step: unstable for ρ_s/ρ_f < C_A (METHODS.md 8.1).
+			if ratio < AddedMass {
+				warn("bodies.coupling = %q is unstable for sphere[%d]: its density ratio %.3g is below the added-mass coefficient C_A = %g (METHODS.md 8.1); use %q",
+					CouplingExplicit, i+1, ratio, AddedMass, CouplingVirtualMass)
+			}
+		case CouplingVirtualMass:
+			// Stable iff C_V > (C_A - ρ_s/ρ_f)/2 (METHODS.md 8.2).
+			if need := (AddedMass - ratio) / 2; c.Bodies.VirtualMass <= need {
+				warn("bodies.virtual_mass = %g is at or below the stability bound (C_A - rho_s/rho_f)/2 = %.3g of sphere[%d] (METHODS.md 8.2); use %g or more",
+					c.Bodies.VirtualMass, need, i+1, DefaultVirtualMass)
+			}
+		}
+	}
+	for k, a := range c.Arms {
+		si, sj, ok := c.pairSpheres(a.Spheres)
+		if !ok {
+			continue
+		}
+		if re := c.strokeSpeed(a) * 2 * math.Max(si.Radius, sj.Radius) / l.Nu; re > MaxSphereRe {
+			warn("arm[%d] stroke Reynolds number 2 pi f A 2a/nu = %.3g exceeds %g: the flow is likely not axisymmetric (Natarajan & Acrivos 1993; Johnson & Patel 1999)",
+				k+1, re, MaxSphereRe)
+		}
+		// The prescribed distance at t = 0: the ramp starts the stroke
+		// from zero amplitude.
+		want := a.Length
+		if c.Shaking.RampPeriods == 0 {
+			want += a.Amplitude * math.Sin(a.Phase*math.Pi/180)
+		}
+		if d := math.Abs(sj.Z - si.Z); math.Abs(d-want) > 1e-6*want {
+			sign := 1.0
+			if sj.Z < si.Z {
+				sign = -1
+			}
+			warn("arm[%d] prescribes a distance of %.6g m at t = 0 but spheres %d and %d are placed %.6g m apart: the arm sets the distance, so the run does not start from the positions in the file; set sphere[%d].z = %.6g m to make them agree",
+				k+1, want, a.Spheres[0], a.Spheres[1], d, a.Spheres[1], si.Z+sign*want)
+		}
+	}
 }

@@ -17,8 +17,13 @@
 //	[container]  radius (m), length (m; z runs from -length/2 to +length/2),
 //	             ends = "closed" | "periodic"
 //	[shaking]    frequency (Hz), amplitude (m), ramp_periods, gravity (m/s^2 along -z)
+//	[[shaking.harmonic]]
+//	             order (integer >= 2), amplitude (m), phase (degrees)
 //	[[sphere]]   radius (m), density (kg/m^3), z (initial centre, m)
 //	[[spring]]   spheres = [i, j] (1-based), stiffness (N/m), rest_length (m), damping (N s/m)
+//	[[arm]]      spheres = [i, j] (1-based), length (m), amplitude (m), phase (degrees),
+//	             frequency (Hz)
+//	[bodies]     virtual_mass, coupling = "virtual-mass" | "explicit", repulsion_range (cells)
 //	[grid]       cells_per_radius, cell_size (m), tau
 //	[solver]     collision = "trt" | "mrt" | "bgk", magic
 //	[run]        periods, duration (s), samples_per_period, sample_interval (s), title
@@ -27,6 +32,8 @@
 // SI-to-lattice mapping) is in METHODS.md sections 10 and 11; the comments
 // in this package cite it by section.
 package cases
+
+import "math"
 
 // Values of Container.Ends.
 const (
@@ -41,6 +48,25 @@ const (
 	CollisionBGK = "bgk" // single relaxation time (METHODS.md 2.1)
 )
 
+// Values of Bodies.Coupling.
+const (
+	// CouplingVirtualMass is the virtual-mass stabilised update of
+	// METHODS.md 8.2, which credits it to Schwarz, Kempe & Fröhlich 2015,
+	// J. Comput. Phys. 281, 591 (unconfirmed there); Werner, Rettinger &
+	// Rüde (arXiv:2103.10882) develop a virtual-mass correction for
+	// lattice-Boltzmann coupling.
+	CouplingVirtualMass = "virtual-mass"
+	// CouplingExplicit is the plain explicit update, unstable for spheres
+	// lighter than C_A = 1/2 of the liquid's density (METHODS.md 8.1); it is
+	// kept to show that failure.
+	CouplingExplicit = "explicit"
+)
+
+// AddedMass is the added-mass coefficient C_A of an isolated sphere in
+// potential flow (METHODS.md 8.1): the explicit coupling is unstable for
+// density ratios below it.
+const AddedMass = 0.5
+
 // Default values of the optional keys.
 const (
 	DefaultEnds             = EndsClosed
@@ -50,6 +76,9 @@ const (
 	DefaultCollision        = CollisionTRT
 	DefaultMagic            = 3.0 / 16 // TRT magic parameter Λ (METHODS.md 2.2)
 	DefaultSamplesPerPeriod = 20
+	DefaultVirtualMass      = 0.5 // C_V of METHODS.md 8.2
+	DefaultCoupling         = CouplingVirtualMass
+	DefaultRepulsionRange   = 2.0 // cells (METHODS.md 9.5)
 	// DefaultSamplesPerDuration is the number of samples taken over
 	// run.duration when run.sample_interval is not given.
 	DefaultSamplesPerDuration = 200
@@ -61,14 +90,16 @@ const (
 // For keys whose zero value is not a valid input (cell_size, tau, periods,
 // duration, samples_per_period, sample_interval, rest_length, magic, ...)
 // the zero value means "not given". Shaking.Gravity and
-// Shaking.RampPeriods may legitimately be zero, so their defaults are
-// applied only by [Default] and [Parse].
+// Shaking.RampPeriods and Bodies.VirtualMass may legitimately be zero, so
+// their defaults are applied only by [Default] and [Parse].
 type Case struct {
 	Fluid     Fluid
 	Container Container
 	Shaking   Shaking
 	Spheres   []Sphere // [[sphere]], in file order; referred to 1-based
 	Springs   []Spring // [[spring]]
+	Arms      []Arm    // [[arm]]
+	Bodies    Bodies
 	Grid      Grid
 	Solver    Solver
 	Run       Run
@@ -89,13 +120,26 @@ type Container struct {
 }
 
 // Shaking is the [shaking] section: the container is displaced along z by
-// Amplitude*sin(2π Frequency t), the amplitude being ramped up smoothly over
-// RampPeriods periods.
+//
+//	X(t) = s(t) [A sin(ω t) + Σ_n A_n sin(n ω t + φ_n)],  ω = 2π Frequency,
+//
+// the ramp s(t) rising smoothly from 0 to 1 over RampPeriods periods; the
+// sum runs over the optional Harmonics.
 type Shaking struct {
 	Frequency   float64 // Hz; 0 means no shaking
-	Amplitude   float64 // m, displacement amplitude of the container; default 0
+	Amplitude   float64 // m, displacement amplitude A of the container; default 0
 	RampPeriods float64 // default 2; 0 switches the ramp off
 	Gravity     float64 // m/s^2 along -z; default 9.81; 0 allowed
+	// Harmonics are the [[shaking.harmonic]] entries, in file order.
+	Harmonics []Harmonic
+}
+
+// Harmonic is one [[shaking.harmonic]] entry: an extra term
+// A_n sin(n ω t + φ_n) of the container displacement.
+type Harmonic struct {
+	Order     int     // n, at least 2
+	Amplitude float64 // A_n, m
+	Phase     float64 // φ_n, degrees; default 0
 }
 
 // Sphere is one [[sphere]] entry. Spheres are centred on the axis.
@@ -111,6 +155,40 @@ type Spring struct {
 	Stiffness  float64 // N/m
 	RestLength float64 // m, centre to centre; default the initial centre distance
 	Damping    float64 // N s/m; default 0
+}
+
+// Arm is one [[arm]] entry: a prescribed stroke between two spheres. The
+// centre-to-centre distance of the spheres is held at
+//
+//	d(t) = Length + s(t) Amplitude sin(2π Frequency t + Phase),
+//
+// with the ramp s(t) of the shaking (over shaking.ramp_periods periods of
+// the arm), and the group of spheres joined by arms moves force-free as a
+// whole: the arms exert equal and opposite forces only.
+type Arm struct {
+	Spheres   [2]int  // 1-based sphere indices
+	Length    float64 // mean centre-to-centre distance, m
+	Amplitude float64 // stroke amplitude, m
+	Phase     float64 // degrees; default 0
+	Frequency float64 // Hz; default shaking.frequency
+}
+
+// Bodies is the [bodies] section: how the spheres are coupled to the
+// liquid.
+type Bodies struct {
+	// VirtualMass is the coefficient C_V of the virtual mass
+	// m_V = C_V ρ_f Vol added to both sides of the sphere update
+	// (METHODS.md 8.2); default 0.5, which keeps an isolated sphere of any
+	// density stable; 0 allowed.
+	VirtualMass float64
+	// Coupling is CouplingVirtualMass (default) or CouplingExplicit.
+	Coupling string
+	// RepulsionRange is the range, in cells, of the short-range repulsion
+	// between spheres and between a sphere and an end wall (Glowinski,
+	// Pan, Hesla & Joseph 1999, Int. J. Multiphase Flow 25, 755; Glowinski,
+	// Pan, Hesla, Joseph & Périaux 2001, J. Comput. Phys. 169, 363; both
+	// cited from memory in METHODS.md 9.5); default 2.
+	RepulsionRange float64
 }
 
 // Grid is the [grid] section.
@@ -146,25 +224,40 @@ type Run struct {
 // Default returns a case with every unconditional default filled in and
 // the required values left zero. The defaults that depend on the rest of
 // the case (cells_per_radius, samples_per_period or sample_interval,
-// rest_length) are filled in by [Case.FillDefaults].
+// rest_length, the arm frequency) are filled in by [Case.FillDefaults].
 func Default() *Case {
 	return &Case{
 		Container: Container{Ends: DefaultEnds},
 		Shaking:   Shaking{RampPeriods: DefaultRampPeriods, Gravity: DefaultGravity},
-		Solver:    Solver{Collision: DefaultCollision, Magic: DefaultMagic},
+		Bodies: Bodies{VirtualMass: DefaultVirtualMass, Coupling: DefaultCoupling,
+			RepulsionRange: DefaultRepulsionRange},
+		Solver: Solver{Collision: DefaultCollision, Magic: DefaultMagic},
 	}
 }
 
 // FillDefaults fills in every optional value that is zero (that is, not
 // given) and whose default follows from the rest of the case:
-// ends, collision and magic; cells_per_radius when there are spheres and no
-// cell_size; samples_per_period for shaken cases or sample_interval for
-// unshaken ones, unless either is given; and the rest length of each spring
-// that joins two existing spheres. It leaves Gravity and RampPeriods alone,
-// since zero is a valid value for both.
+// ends, collision, magic, coupling and repulsion_range; cells_per_radius
+// when there are spheres and no cell_size; the frequency of each arm from
+// the shaking; samples_per_period for periodic cases (shaken, or with an
+// arm) or sample_interval for the others, unless either is given; and the
+// rest length of each spring that joins two existing spheres. It leaves
+// Gravity, RampPeriods and VirtualMass alone, since zero is a valid value
+// for each.
 func (c *Case) FillDefaults() {
 	if c.Container.Ends == "" {
 		c.Container.Ends = DefaultEnds
+	}
+	if c.Bodies.Coupling == "" {
+		c.Bodies.Coupling = DefaultCoupling
+	}
+	if c.Bodies.RepulsionRange == 0 {
+		c.Bodies.RepulsionRange = DefaultRepulsionRange
+	}
+	for i := range c.Arms {
+		if c.Arms[i].Frequency == 0 {
+			c.Arms[i].Frequency = c.Shaking.Frequency
+		}
 	}
 	if c.Solver.Collision == "" {
 		c.Solver.Collision = DefaultCollision
@@ -177,7 +270,7 @@ func (c *Case) FillDefaults() {
 	}
 	if c.Run.SamplesPerPeriod == 0 && c.Run.SampleInterval == 0 {
 		switch {
-		case c.Shaking.Frequency > 0:
+		case c.periodFrequency() > 0:
 			c.Run.SamplesPerPeriod = DefaultSamplesPerPeriod
 		case c.Run.Duration > 0:
 			c.Run.SampleInterval = c.Run.Duration / DefaultSamplesPerDuration
@@ -194,15 +287,37 @@ func (c *Case) FillDefaults() {
 	}
 }
 
-// springSpheres returns the two spheres a spring joins, and whether both
-// indices name existing, distinct spheres.
-func (c *Case) springSpheres(s Spring) (a, b Sphere, ok bool) {
-	i, j := s.Spheres[0], s.Spheres[1]
+// periodFrequency is the frequency (Hz) whose periods count the run: the
+// shaking frequency, or without shaking the lowest positive arm frequency
+// (the slowest stroke); 0 when nothing is periodic.
+func (c *Case) periodFrequency() float64 {
+	if c.Shaking.Frequency > 0 {
+		return c.Shaking.Frequency
+	}
+	f := 0.0
+	for _, a := range c.Arms {
+		if a.Frequency > 0 && !math.IsInf(a.Frequency, 1) && (f == 0 || a.Frequency < f) {
+			f = a.Frequency
+		}
+	}
+	return f
+}
+
+// pairSpheres returns the two spheres a pair of 1-based indices names, and
+// whether both name existing, distinct spheres.
+func (c *Case) pairSpheres(p [2]int) (a, b Sphere, ok bool) {
+	i, j := p[0], p[1]
 	n := len(c.Spheres)
 	if i < 1 || i > n || j < 1 || j > n || i == j {
 		return Sphere{}, Sphere{}, false
 	}
 	return c.Spheres[i-1], c.Spheres[j-1], true
+}
+
+// springSpheres returns the two spheres a spring joins, and whether both
+// indices name existing, distinct spheres.
+func (c *Case) springSpheres(s Spring) (a, b Sphere, ok bool) {
+	return c.pairSpheres(s.Spheres)
 }
 
 // smallestSphere returns the smallest sphere radius, or 0 without spheres.

@@ -63,25 +63,34 @@ type Lattice struct {
 
 	Density float64 // fluid density ρ_f (kg/m^3)
 	Nu      float64 // fluid kinematic viscosity μ/ρ_f (m^2/s)
-	Omega   float64 // drive angular frequency 2π f (rad/s); 0 without shaking
-	OmegaL  float64 // drive angular frequency per step, Omega Dt
+	// Omega is the angular frequency 2π f of the run's period: the drive's
+	// (shaking.frequency) or, without shaking, the slowest arm stroke's; 0
+	// when nothing is periodic.
+	Omega  float64
+	OmegaL float64 // Omega per step, Omega Dt
+	// OmegaMax is the highest angular frequency of the forcing: of the
+	// drive, of each harmonic with a positive amplitude (order x drive)
+	// and of each arm stroke. The acoustic limit uses it; it equals Omega
+	// without harmonics and arms.
+	OmegaMax float64
 
-	StepsPerPeriod int // steps per drive period; 0 without shaking
+	StepsPerPeriod int // steps per period of Omega; 0 when nothing is periodic
 	Steps          int // total steps of the run
 
 	// RefVelocity is the reference speed U (m/s) used for the Mach
-	// limit: the largest of A ω, the Stokes settling speed of each sphere
-	// (with gravity) and, for periodic ends with gravity, the centre speed
-	// of Hagen–Poiseuille flow g R²/(4ν).
+	// limit: the largest of the container speed bound ω (A + Σ n A_n), the
+	// stroke speed 2π f A of each arm, the Stokes settling speed of each
+	// sphere (with gravity) and, for periodic ends with gravity, the centre
+	// speed of Hagen–Poiseuille flow g R²/(4ν).
 	RefVelocity float64
 
 	// Expected values of the limits of METHODS.md 10.1.
 	Mach        float64 // U Δt/Δx / c_s
-	He          float64 // ω Δt max(Nz, Nr)/c_s
-	HeRadial    float64 // ω Δt Nr/c_s
+	He          float64 // OmegaMax Δt max(Nz, Nr)/c_s
+	HeRadial    float64 // OmegaMax Δt Nr/c_s
 	ReGrid      float64 // U Δx/ν
 	WallCFL     float64 // largest expected sphere speed relative to the container, in cells per step
-	StokesCells float64 // Stokes-layer thickness δ = √(2ν/ω) in cells; 0 without shaking
+	StokesCells float64 // Stokes-layer thickness δ = √(2ν/Omega) in cells; 0 when nothing is periodic
 
 	Bound    string   // the limit that chose the time step: BoundMach, ..., BoundGiven
 	Warnings []string // limits that are violated or nearly so, one sentence each
@@ -132,12 +141,15 @@ func finitePositive(x float64) bool { return x > 0 && !math.IsInf(x, 1) }
 // generalised:
 //
 //	Ma = U_L/c_s <= 0.1, U_L = U Δt/Δx          (Mach, METHODS.md 10.1)
-//	He = ω Δt max(Nz, Nr)/c_s <= 1               (acoustic, METHODS.md 10.3)
+//	He = ω_max Δt max(Nz, Nr)/c_s <= 1           (acoustic, METHODS.md 10.3)
 //	τ⁺ = 3ν_L + 1/2 <= 1                         (tau_max, METHODS.md 10.1)
 //	τ⁺ >= 0.51                                   (tau_min, METHODS.md 10.1)
 //
-// With shaking, the steps per period are then rounded up to an integer so
-// that phases are sampled exactly, and Δt and ν_L recomputed. If the upper
+// ω_max is the highest frequency of the forcing (Lattice.OmegaMax): a
+// harmonic or an arm stroke rings the cell like the drive does. With
+// shaking, or with an arm stroke, the steps per period (of Lattice.Omega)
+// are then rounded up to an integer so that phases are sampled exactly, and
+// Δt and ν_L recomputed. If the upper
 // limits fall below the floor, Resolve returns [Problems] naming the
 // conflicting limits and the resolution that would clear them. When tau is
 // given it is used (adjusted slightly, with shaking, to make the period a
@@ -154,8 +166,9 @@ func Resolve(c *Case) (*Lattice, error) {
 		Nr:      int(g.nr),
 		Density: c.Fluid.Density,
 		Nu:      nu,
-		Omega:   2 * math.Pi * c.Shaking.Frequency,
+		Omega:   2 * math.Pi * c.periodFrequency(),
 	}
+	l.OmegaMax = c.maxForcingOmega()
 	l.Length = float64(l.Nz) * l.Dx
 	l.Radius = float64(l.Nr) * l.Dx
 	l.RefVelocity = c.referenceSpeed(nu)
@@ -171,8 +184,8 @@ func Resolve(c *Case) (*Lattice, error) {
 		{BoundAcoustic, fmt.Sprintf("the acoustic limit He <= %g (METHODS.md 10.3)", MaxHe), math.Inf(1)},
 		{BoundMach, fmt.Sprintf("the Mach limit Ma <= %g (METHODS.md 10.1)", MaxMach), math.Inf(1)},
 	}
-	if l.Omega > 0 {
-		limits[1].nuL = MaxHe * Cs * nu / (l.Omega * dx2 * lmax)
+	if l.OmegaMax > 0 {
+		limits[1].nuL = MaxHe * Cs * nu / (l.OmegaMax * dx2 * lmax)
 	}
 	if l.RefVelocity > 0 {
 		limits[2].nuL = MaxMach * Cs * nu / (l.RefVelocity * l.Dx)
@@ -188,7 +201,7 @@ func Resolve(c *Case) (*Lattice, error) {
 
 	var period float64
 	if l.Omega > 0 {
-		period = 1 / c.Shaking.Frequency
+		period = 1 / c.periodFrequency()
 	}
 	if c.Grid.Tau == 0 {
 		l.Bound = bound
@@ -248,8 +261,8 @@ func Resolve(c *Case) (*Lattice, error) {
 	uL := l.RefVelocity * l.Dt / l.Dx
 	l.Mach = uL / Cs
 	l.OmegaL = l.Omega * l.Dt
-	l.He = l.OmegaL * lmax / Cs
-	l.HeRadial = l.OmegaL * float64(l.Nr) / Cs
+	l.He = l.OmegaMax * l.Dt * lmax / Cs
+	l.HeRadial = l.OmegaMax * l.Dt * float64(l.Nr) / Cs
 	l.ReGrid = l.RefVelocity * l.Dx / nu
 	l.WallCFL = c.wallSpeed() * l.Dt / l.Dx
 	if l.Omega > 0 {

@@ -51,10 +51,16 @@ func (ps Problems) Error() string {
 // has already checked the keys. The checks are: positive sizes, densities
 // and viscosity; known ends and collision names; spheres inside the
 // container, clear of its walls and of each other; springs joining two
-// existing, distinct spheres with non-negative stiffness and damping; the
-// grid keys (cells_per_radius >= 5 with spheres, cell_size without);
-// tau > 1/2 when given; the periods/duration and sampling rules; the
-// shaking parameters; and that the grid fits in memory.
+// existing, distinct spheres with non-negative stiffness and damping; arms
+// joining two existing, distinct spheres that no spring joins, forming no
+// loop, with a closest approach at least MinGapCells cells clear and a
+// positive frequency; harmonics of order >= 2 of a shaken container; the
+// [bodies] keys; the grid keys (cells_per_radius >= 5 with spheres,
+// cell_size without); tau > 1/2 when given; the periods/duration and
+// sampling rules; the shaking parameters; and that the grid fits in memory.
+//
+// An arm frequency of zero stands for its default, shaking.frequency, as
+// [Case.FillDefaults] fills it in.
 func (c *Case) Validate() error {
 	var v validator
 	c.validateFluid(&v)
@@ -62,6 +68,8 @@ func (c *Case) Validate() error {
 	c.validateShaking(&v)
 	c.validateSpheres(&v)
 	c.validateSprings(&v)
+	c.validateArms(&v)
+	c.validateBodies(&v)
 	c.validateGrid(&v)
 	c.validateSolver(&v)
 	c.validateRun(&v)
@@ -96,6 +104,15 @@ func (v *validator) nonNegative(key string, x float64, fix string) bool {
 		return true
 	}
 	v.add(key, x, "must be zero or positive", fix)
+	return false
+}
+
+// finite requires a finite number.
+func (v *validator) finite(key string, x float64, fix string) bool {
+	if !math.IsNaN(x) && !math.IsInf(x, 0) {
+		return true
+	}
+	v.add(key, x, "must be a finite number", fix)
 	return false
 }
 
@@ -140,12 +157,34 @@ func (c *Case) validateShaking(v *validator) {
 			"give shaking.frequency in Hz, or set the amplitude to 0")
 	}
 	if v.nonNegative("shaking.ramp_periods", s.RampPeriods, "give a number of periods, e.g. 2, or 0 for no ramp") &&
-		s.Frequency > 0 && c.Run.Periods > 0 && s.RampPeriods > float64(c.Run.Periods) {
+		c.periodFrequency() > 0 && c.Run.Periods > 0 && s.RampPeriods > float64(c.Run.Periods) {
 		v.add("shaking.ramp_periods", s.RampPeriods,
 			fmt.Sprintf("the ramp is longer than the run (run.periods = %d)", c.Run.Periods),
 			"shorten the ramp or run more periods")
 	}
 	v.nonNegative("shaking.gravity", s.Gravity, "give the magnitude in m/s^2 (gravity acts along -z), e.g. 9.81, or 0")
+
+	first := make(map[int]int) // order -> first entry (1-based)
+	for i, h := range s.Harmonics {
+		key := fmt.Sprintf("shaking.harmonic[%d]", i+1)
+		if s.Frequency == 0 {
+			v.add(key, nil, "a harmonic needs shaking.frequency > 0 (its frequency is order x shaking.frequency)",
+				"give shaking.frequency in Hz, or remove the [[shaking.harmonic]] entry")
+		}
+		switch {
+		case h.Order < 2:
+			v.add(key+".order", h.Order, "must be at least 2 (order 1 is the fundamental, shaking.amplitude)",
+				"give the multiple of the drive frequency, e.g. 2 or 3")
+		case first[h.Order] > 0:
+			v.add(key+".order", h.Order,
+				fmt.Sprintf("order %d is already given by shaking.harmonic[%d]", h.Order, first[h.Order]),
+				"give each order once: merge the two entries into one amplitude and phase")
+		default:
+			first[h.Order] = i + 1
+		}
+		v.nonNegative(key+".amplitude", h.Amplitude, "give the displacement amplitude of this harmonic in metres, e.g. 0.0001")
+		v.finite(key+".phase", h.Phase, "give the phase in degrees, or leave it out for 0")
+	}
 }
 
 func (c *Case) validateSpheres(v *validator) {
@@ -204,30 +243,148 @@ func (c *Case) validateSpheres(v *validator) {
 	}
 }
 
-func (c *Case) validateSprings(v *validator) {
+// pair checks that key (spring[i].spheres or arm[i].spheres) names two
+// existing, distinct spheres; what is "a spring" or "an arm".
+func (c *Case) pair(v *validator, key, what string, p [2]int) bool {
 	n := len(c.Spheres)
+	for _, k := range p {
+		if k < 1 || k > n {
+			v.add(key, p,
+				fmt.Sprintf("sphere %d does not exist (there are %d spheres, numbered from 1)", k, n),
+				"name two spheres by their 1-based position in the file")
+			return false
+		}
+	}
+	if p[0] == p[1] {
+		v.add(key, p, what+" must join two different spheres", "name two different spheres, e.g. [1, 2]")
+		return false
+	}
+	return true
+}
+
+func samePair(a, b [2]int) bool {
+	return a == b || a[0] == b[1] && a[1] == b[0]
+}
+
+func (c *Case) validateSprings(v *validator) {
 	for i, s := range c.Springs {
 		key := fmt.Sprintf("spring[%d]", i+1)
-		ok := true
-		for _, k := range s.Spheres {
-			if k < 1 || k > n {
-				ok = false
-				v.add(key+".spheres", s.Spheres,
-					fmt.Sprintf("sphere %d does not exist (there are %d spheres, numbered from 1)", k, n),
-					"name two spheres by their 1-based position in the file")
-				break
-			}
-		}
-		if ok && s.Spheres[0] == s.Spheres[1] {
-			v.add(key+".spheres", s.Spheres, "a spring must join two different spheres",
-				"name two different spheres, e.g. [1, 2]")
-		}
+		c.pair(v, key+".spheres", "a spring", s.Spheres)
 		v.nonNegative(key+".stiffness", s.Stiffness, "give the stiffness in N/m, e.g. 0.05")
 		v.nonNegative(key+".damping", s.Damping, "give the damping coefficient in N s/m, or 0")
 		if !(s.RestLength > 0) || math.IsInf(s.RestLength, 1) {
 			v.add(key+".rest_length", s.RestLength, "must be positive",
 				"give the centre-to-centre rest length in metres, or leave it out to use the initial distance")
 		}
+	}
+}
+
+// gapCell returns the cell size used to measure the clearance of an arm:
+// the grid's, when the grid can be computed, and otherwise a tenth of the
+// smaller radius a (the coarsest resolution Validate accepts is 5 cells per
+// radius, the recommended one 12; METHODS.md 10.1). how says which.
+func (c *Case) gapCell(a float64) (dx float64, how string) {
+	if g, ok := c.grid(); ok && g.dx > 0 {
+		return g.dx, "the grid's cell size"
+	}
+	return a / 10, "a tenth of the smaller radius, as the grid is not defined"
+}
+
+func (c *Case) validateArms(v *validator) {
+	// Arms joining spheres into groups, to find loops (union-find).
+	group := make([]int, len(c.Spheres)+1)
+	for i := range group {
+		group[i] = i
+	}
+	var find func(int) int
+	find = func(i int) int {
+		if group[i] != i {
+			group[i] = find(group[i])
+		}
+		return group[i]
+	}
+	for i, a := range c.Arms {
+		key := fmt.Sprintf("arm[%d]", i+1)
+		okPair := c.pair(v, key+".spheres", "an arm", a.Spheres)
+		okLen := v.positive(key+".length", a.Length, "give the mean centre-to-centre distance in metres, e.g. 0.004")
+		okAmp := v.nonNegative(key+".amplitude", a.Amplitude, "give the stroke amplitude in metres, e.g. 0.0005, or 0")
+		v.finite(key+".phase", a.Phase, "give the phase in degrees, or leave it out for 0")
+		switch f := a.Frequency; {
+		case f == 0 && c.Shaking.Frequency == 0:
+			v.add(key+".frequency", nil, "required when there is no shaking (it defaults to shaking.frequency)",
+				"give the stroke frequency in Hz, e.g. 10")
+		case f == 0:
+			// the default, shaking.frequency, is positive
+		case !(f > 0) || math.IsInf(f, 1):
+			v.add(key+".frequency", f, "must be positive",
+				"give the stroke frequency in Hz, or leave it out to use shaking.frequency")
+		}
+		if !okPair {
+			continue
+		}
+		si, sj := c.Spheres[a.Spheres[0]-1], c.Spheres[a.Spheres[1]-1]
+		if okLen && okAmp && si.Radius > 0 && sj.Radius > 0 {
+			dx, how := c.gapCell(math.Min(si.Radius, sj.Radius))
+			touch := si.Radius + sj.Radius
+			need := touch + MinGapCells*dx // the shortest distance allowed
+			if short := a.Length - a.Amplitude; short < need {
+				fix := fmt.Sprintf("raise %s.length to at least %s m", key, roundUp(need+a.Amplitude))
+				if a.Amplitude > 0 && a.Length > need {
+					fix += fmt.Sprintf(", or lower %s.amplitude to at most %s m", key, roundDown(a.Length-need))
+				}
+				v.add(key+".length", a.Length,
+					fmt.Sprintf("at its shortest (length - amplitude = %s m) the arm leaves a gap of %s m between spheres %d and %d, less than %g cells (%s, %s m)",
+						formatValue(short), fmt.Sprintf("%.4g", short-touch), a.Spheres[0], a.Spheres[1],
+						MinGapCells, how, fmt.Sprintf("%.4g", dx)),
+					fix)
+			}
+		}
+		for k, s := range c.Springs {
+			if samePair(s.Spheres, a.Spheres) {
+				v.add(key+".spheres", a.Spheres,
+					fmt.Sprintf("spheres %d and %d are also joined by spring[%d]: a pair may have an arm or a spring, not both",
+						a.Spheres[0], a.Spheres[1], k+1),
+					fmt.Sprintf("remove spring[%d] or %s", k+1, key))
+			}
+		}
+		ri, rj := find(a.Spheres[0]), find(a.Spheres[1])
+		if ri == rj {
+			v.add(key+".spheres", a.Spheres,
+				fmt.Sprintf("the arms form a loop: spheres %d and %d are already joined through other arms, and the distances around a loop cannot all be prescribed",
+					a.Spheres[0], a.Spheres[1]),
+				"remove one arm of the loop (a chain or a tree of arms is fine)")
+			continue
+		}
+		group[ri] = rj
+	}
+}
+
+// roundUp and roundDown write x > 0 to four significant figures, rounded
+// away from the limit they state.
+func roundUp(x float64) string   { return round4(x, math.Ceil) }
+func roundDown(x float64) string { return round4(x, math.Floor) }
+
+func round4(x float64, f func(float64) float64) string {
+	if !(x > 0) || math.IsInf(x, 1) {
+		return formatValue(x)
+	}
+	p := math.Pow(10, math.Floor(math.Log10(x))-3)
+	return strconv.FormatFloat(f(x/p)*p, 'g', 4, 64)
+}
+
+func (c *Case) validateBodies(v *validator) {
+	b := c.Bodies
+	v.nonNegative("bodies.virtual_mass", b.VirtualMass,
+		"give the virtual-mass coefficient C_V, e.g. 0.5 (METHODS.md 8.2), or 0")
+	switch b.Coupling {
+	case CouplingVirtualMass, CouplingExplicit:
+	default:
+		v.add("bodies.coupling", b.Coupling, "unknown coupling",
+			fmt.Sprintf("use %q (recommended) or %q", CouplingVirtualMass, CouplingExplicit))
+	}
+	if !(b.RepulsionRange >= 0.5) || math.IsInf(b.RepulsionRange, 1) {
+		v.add("bodies.repulsion_range", b.RepulsionRange, "must be at least 0.5 cells",
+			fmt.Sprintf("give the range of the short-range repulsion in cells, e.g. %g", DefaultRepulsionRange))
 	}
 }
 
@@ -293,16 +450,21 @@ func (c *Case) validateSolver(v *validator) {
 
 func (c *Case) validateRun(v *validator) {
 	r := c.Run
-	if c.Shaking.Frequency > 0 {
+	if c.periodFrequency() > 0 {
+		why := "required when shaking.frequency > 0"
+		if c.Shaking.Frequency == 0 {
+			why = fmt.Sprintf("required when an arm strokes (the run counts periods of the slowest stroke, %g Hz)",
+				c.periodFrequency())
+		}
 		switch {
 		case r.Periods == 0:
-			v.add("run.periods", nil, "required when shaking.frequency > 0",
+			v.add("run.periods", nil, why,
 				"give the number of drive periods to run, e.g. 20")
 		case r.Periods < 0:
 			v.add("run.periods", r.Periods, "must be positive", "give the number of drive periods to run, e.g. 20")
 		}
 		if r.Duration != 0 {
-			reason := "not allowed when the container is shaken: the run length is given in periods"
+			reason := "not allowed when the container is shaken or an arm strokes: the run length is given in periods"
 			if r.Periods != 0 {
 				reason = "not allowed together with run.periods"
 			}
@@ -319,20 +481,20 @@ func (c *Case) validateRun(v *validator) {
 	}
 	switch {
 	case r.Duration == 0:
-		v.add("run.duration", nil, "required when shaking.frequency = 0",
+		v.add("run.duration", nil, "required when nothing is periodic (shaking.frequency = 0 and no arm)",
 			"give the simulated time in seconds")
 	case !(r.Duration > 0) || math.IsInf(r.Duration, 1):
 		v.add("run.duration", r.Duration, "must be positive", "give the simulated time in seconds")
 	}
 	if r.Periods != 0 {
-		reason := "needs shaking.frequency > 0"
+		reason := "needs shaking.frequency > 0 or an arm"
 		if r.Duration != 0 {
 			reason = "not allowed together with run.duration"
 		}
 		v.add("run.periods", r.Periods, reason, "without shaking give run.duration in seconds instead")
 	}
 	if r.SamplesPerPeriod != 0 {
-		v.add("run.samples_per_period", r.SamplesPerPeriod, "needs shaking.frequency > 0",
+		v.add("run.samples_per_period", r.SamplesPerPeriod, "needs shaking.frequency > 0 or an arm",
 			"give run.sample_interval in seconds instead")
 	}
 	if !(r.Duration > 0) {

@@ -25,21 +25,44 @@ type Options struct {
 
 // Summary is what summary.json records about a run.
 type Summary struct {
-	Title            string         `json:"title,omitempty"`
-	Completed        bool           `json:"completed"`
-	Interrupted      bool           `json:"interrupted,omitempty"`
-	Failure          string         `json:"failure,omitempty"`
-	Steps            int64          `json:"steps"`
-	SimulatedTime    float64        `json:"simulated_time_s"`
-	WallTime         float64        `json:"wall_time_s"`
-	MLUPS            float64        `json:"mlups"`
-	Lattice          LatticeSummary `json:"lattice"`
-	MaxMach          float64        `json:"max_mach"`
-	FinalMaxSpeed    float64        `json:"final_max_speed_m_s"`
-	FinalMeanAxial   float64        `json:"final_mean_axial_velocity_m_s"`
-	MaxMassDrift     float64        `json:"max_mass_drift"`
-	SpheresSimulated bool           `json:"spheres_simulated"`
-	Warnings         []string       `json:"warnings"`
+	Title       string `json:"title,omitempty"`
+	Completed   bool   `json:"completed"`
+	Interrupted bool   `json:"interrupted,omitempty"`
+	Failure     string `json:"failure,omitempty"`
+
+	// The swimmer (absent without spheres).
+	MeanVelocity            *float64 `json:"mean_velocity_m_s,omitempty"`
+	MeanVelocityUncertainty *float64 `json:"mean_velocity_uncertainty_m_s,omitempty"`
+	Swimming                *bool    `json:"swimming,omitempty"`
+	Direction               string   `json:"direction,omitempty"`
+	LeadingSphere           *int     `json:"leading_sphere,omitempty"`
+	Converged               *bool    `json:"converged,omitempty"`
+	ConvergenceCriterion    string   `json:"convergence_criterion,omitempty"`
+	PeriodsAnalysed         int      `json:"periods_analysed,omitempty"`
+	NetDisplacement         *float64 `json:"net_displacement_m,omitempty"`
+
+	Groups     []cases.SphereGroups `json:"groups,omitempty"`
+	Model      *ModelResult         `json:"model,omitempty"`
+	Comparison []Comparison         `json:"model_comparison,omitempty"`
+
+	Steps         int64          `json:"steps"`
+	SimulatedTime float64        `json:"simulated_time_s"`
+	WallTime      float64        `json:"wall_time_s"`
+	MLUPS         float64        `json:"mlups"`
+	Lattice       LatticeSummary `json:"lattice"`
+	MaxMach       float64        `json:"max_mach"`
+	MaxMassDrift  float64        `json:"max_mass_drift"`
+	MassCorrected float64        `json:"mass_correction_applied,omitempty"`
+	Warnings      []string       `json:"warnings"`
+}
+
+// Comparison is one quantity from the simulation beside the reduced
+// linear model's value.
+type Comparison struct {
+	Quantity  string  `json:"quantity"`
+	Simulated float64 `json:"simulated"`
+	Model     float64 `json:"model"`
+	Ratio     float64 `json:"ratio"`
 }
 
 // LatticeSummary records the lattice parameters of a run.
@@ -54,21 +77,34 @@ type LatticeSummary struct {
 	Threads        int     `json:"threads"`
 }
 
-// seriesColumns are the columns of series.csv at this stage of the tool.
-var seriesColumns = []output.Column{
-	{Name: "time_s", Doc: "physical time"},
-	{Name: "drive_displacement_m", Doc: "container displacement X(t)"},
-	{Name: "drive_velocity_m_s", Doc: "container velocity dX/dt"},
-	{Name: "drive_acceleration_m_s2", Doc: "container acceleration"},
-	{Name: "max_speed_m_s", Doc: "largest liquid speed in the container frame"},
-	{Name: "mean_axial_velocity_m_s", Doc: "volume average of the axial velocity"},
-	{Name: "mach", Doc: "largest lattice speed over the lattice sound speed"},
-	{Name: "mass_drift", Doc: "relative change of the liquid's mass"},
+// seriesColumns returns the columns of series.csv.
+func seriesColumns(sim *Simulation) []output.Column {
+	cols := []output.Column{
+		{Name: "time_s", Doc: "physical time"},
+		{Name: "drive_displacement_m", Doc: "container displacement X(t) in the laboratory"},
+	}
+	for k := 0; k < sim.Spheres(); k++ {
+		cols = append(cols,
+			output.Column{Name: fmt.Sprintf("sphere%d_z_m", k+1), Doc: "centre, container frame"},
+			output.Column{Name: fmt.Sprintf("sphere%d_velocity_m_s", k+1), Doc: "velocity, container frame"},
+			output.Column{Name: fmt.Sprintf("sphere%d_force_N", k+1), Doc: "hydrodynamic force (modified pressure in closed containers)"})
+	}
+	if sim.sw != nil {
+		for k := range sim.sw.dyn.Springs {
+			cols = append(cols, output.Column{Name: fmt.Sprintf("spring%d_extension_m", k+1), Doc: "length minus rest length"})
+		}
+		cols = append(cols, output.Column{Name: "centroid_m", Doc: "mean of the sphere centres, container frame"})
+	}
+	return append(cols,
+		output.Column{Name: "max_speed_m_s", Doc: "largest liquid speed in the container frame"},
+		output.Column{Name: "mach", Doc: "largest lattice speed over the lattice sound speed"},
+		output.Column{Name: "mass_drift", Doc: "relative change of the liquid's mass (3D, lattice)"})
 }
 
 // Run runs the case c on lattice l and writes its outputs into opt.Out:
-// case.toml (the case as resolved), series.csv and summary.json. It stops
-// early, flushing everything, when ctx is cancelled.
+// case.toml (the case as resolved), series.csv, periods.csv (shaken cases
+// with spheres) and summary.json. It stops early, flushing everything,
+// when ctx is cancelled.
 func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Summary, error) {
 	if opt.Log == nil {
 		opt.Log = io.Discard
@@ -92,19 +128,25 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 	sum := &Summary{
 		Title:    c.Run.Title,
 		Warnings: append([]string{}, l.Warnings...),
+		Groups:   c.Groups(l),
 		Lattice: LatticeSummary{Nz: l.Nz, Nr: l.Nr, CellSize: l.Dx, TimeStep: l.Dt, Tau: l.Tau,
 			StepsPerPeriod: l.StepsPerPeriod, Bound: l.Bound, Threads: sim.Fluid.Threads()},
 	}
-	if len(c.Spheres) > 0 {
-		w := "this version solves the liquid only: the spheres are parsed and validated but not yet simulated"
-		sum.Warnings = append(sum.Warnings, w)
-		fmt.Fprintf(opt.Log, "warning: %s\n", w)
-	}
-
-	series, err := output.CreateSeries(filepath.Join(opt.Out, "series.csv"), seriesColumns)
+	series, err := output.CreateSeries(filepath.Join(opt.Out, "series.csv"), seriesColumns(sim))
 	if err != nil {
 		return nil, err
 	}
+	var tracker *periodTracker
+	var periods *output.Series
+	if sim.sw != nil && l.StepsPerPeriod > 0 {
+		tracker = newPeriodTracker(sim)
+		periods, err = output.CreateSeries(filepath.Join(opt.Out, "periods.csv"), tracker.columns())
+		if err != nil {
+			series.Close()
+			return nil, err
+		}
+	}
+
 	samples := sampleSteps(c, l)
 	unit, total := "steps", int64(l.Steps)
 	if l.StepsPerPeriod > 0 {
@@ -113,35 +155,74 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 	prog := output.NewProgress(opt.Log, opt.Quiet, total, unit, "run")
 	start := time.Now()
 	var runErr error
-	record := func() Observation {
-		o := sim.Observe()
-		if err := series.Row(o.Time, o.DriveDisplacement, o.DriveVelocity, o.DriveAcceleration,
-			o.MaxSpeed, o.MeanAxialVelocity, o.Mach, o.MassDrift); err != nil && runErr == nil {
+	keep := func(err error) {
+		if err != nil && runErr == nil {
 			runErr = err
 		}
+	}
+	row := make([]float64, 0, 16)
+	record := func() Observation {
+		o := sim.Observe()
+		row = append(row[:0], o.Time, o.DriveDisplacement)
+		for k := 0; k < sim.Spheres(); k++ {
+			z, v, f := sim.SphereState(k)
+			row = append(row, z, v, f)
+		}
+		if sim.sw != nil {
+			for k := range sim.sw.dyn.Springs {
+				row = append(row, sim.SpringExtension(k))
+			}
+			row = append(row, sim.Centroid())
+		}
+		row = append(row, o.MaxSpeed, o.Mach, o.MassDrift)
+		keep(series.Row(row...))
 		sum.MaxMach = math.Max(sum.MaxMach, o.Mach)
 		sum.MaxMassDrift = math.Max(sum.MaxMassDrift, math.Abs(o.MassDrift))
-		sum.FinalMaxSpeed, sum.FinalMeanAxial = o.MaxSpeed, o.MeanAxialVelocity
 		return o
 	}
+	status := func() string {
+		if tracker == nil || len(tracker.Centroids) < 3 {
+			return ""
+		}
+		sp := SwimmingSpeed(tracker.Centroids, 1/c.Shaking.Frequency, rampPeriods(c))
+		return fmt.Sprintf("mean speed %.3g +- %.2g m/s", sp.Mean, sp.Uncertainty)
+	}
 	record()
-	for _, next := range samples {
+	nextSample := 0
+loop:
+	for sim.Step() < int64(l.Steps) {
 		if ctx.Err() != nil {
 			sum.Interrupted = true
 			break
 		}
-		sim.Advance(int(next - sim.Step()))
-		o := record()
-		if !o.Finite || o.Mach > 0.3 {
-			sum.Failure = fmt.Sprintf("unstable at t = %.6g s (step %d): max Mach %.3g%s; "+
-				"lower grid.tau or raise grid.cells_per_radius", o.Time, sim.Step(), o.Mach, nanNote(o.Finite))
+		if err := sim.Advance(1); err != nil {
+			sum.Failure = err.Error()
 			break
 		}
-		done := sim.Step()
-		if l.StepsPerPeriod > 0 {
-			done /= int64(l.StepsPerPeriod)
+		if tracker != nil {
+			before := len(tracker.rows)
+			tracker.step()
+			if len(tracker.rows) > before {
+				keep(periods.Row(tracker.rows[len(tracker.rows)-1].values()...))
+				prog.Set(int64(len(tracker.rows)), status())
+			}
 		}
-		prog.Set(done, fmt.Sprintf("max speed %.3g m/s", o.MaxSpeed))
+		for nextSample < len(samples) && sim.Step() >= samples[nextSample] {
+			nextSample++
+			o := record()
+			if !o.Finite || o.Mach > 0.3 {
+				sum.Failure = fmt.Sprintf("unstable at t = %.6g s (step %d): max Mach %.3g%s; "+
+					"lower grid.tau or raise grid.cells_per_radius", o.Time, sim.Step(), o.Mach, nanNote(o.Finite))
+				break loop
+			}
+			if tracker == nil {
+				done := sim.Step()
+				if l.StepsPerPeriod > 0 {
+					done /= int64(l.StepsPerPeriod)
+				}
+				prog.Set(done, fmt.Sprintf("max speed %.3g m/s", o.MaxSpeed))
+			}
+		}
 	}
 	prog.Done()
 	wall := time.Since(start).Seconds()
@@ -151,17 +232,108 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 	if wall > 0 {
 		sum.MLUPS = float64(l.Nz*l.Nr) * float64(sum.Steps) / wall / 1e6
 	}
+	drift, applied := sim.MassDrift()
+	sum.MaxMassDrift = math.Max(sum.MaxMassDrift, drift)
+	sum.MassCorrected = applied
+	if tracker != nil {
+		summarizeSwimmer(sum, sim, tracker)
+	}
 	sum.Completed = sum.Failure == "" && !sum.Interrupted
-	if err := series.Close(); err != nil && runErr == nil {
-		runErr = err
+	keep(series.Close())
+	if periods != nil {
+		keep(periods.Close())
 	}
-	if err := output.WriteJSON(filepath.Join(opt.Out, "summary.json"), sum); err != nil && runErr == nil {
-		runErr = err
-	}
+	keep(output.WriteJSON(filepath.Join(opt.Out, "summary.json"), sum))
 	if runErr == nil && sum.Failure != "" {
 		runErr = errors.New(sum.Failure)
 	}
 	return sum, runErr
+}
+
+// rampPeriods is the number of periods the swimming-speed estimate skips:
+// the ramp and as many periods again for the transient it leaves.
+func rampPeriods(c *cases.Case) int {
+	return int(math.Ceil(2 * c.Shaking.RampPeriods))
+}
+
+// summarizeSwimmer fills in the swimming speed, the leading sphere and the
+// comparison with the reduced model.
+func summarizeSwimmer(sum *Summary, sim *Simulation, tr *periodTracker) {
+	c := sim.Case
+	T := float64(tr.steps) * sim.Lattice.Dt
+	sp := SwimmingSpeed(tr.Centroids, T, rampPeriods(c))
+	net := tr.Centroids[len(tr.Centroids)-1] - tr.Centroids[0]
+	sum.NetDisplacement = &net
+	if sp.Periods == 0 {
+		sum.ConvergenceCriterion = sp.Criterion
+		sum.Warnings = append(sum.Warnings, "too few periods for a swimming speed: "+sp.Criterion)
+		return
+	}
+	sum.MeanVelocity, sum.MeanVelocityUncertainty = &sp.Mean, &sp.Uncertainty
+	sum.Swimming, sum.Converged = &sp.Swimming, &sp.Converged
+	sum.ConvergenceCriterion, sum.PeriodsAnalysed = sp.Criterion, sp.Periods
+	lead := 0
+	switch {
+	case sp.Swimming && sp.Mean > 0:
+		sum.Direction = "+z"
+		lead = argExtreme(sim, +1)
+	case sp.Swimming:
+		sum.Direction = "-z"
+		lead = argExtreme(sim, -1)
+	default:
+		sum.Direction = "none (not distinguishable from zero)"
+	}
+	sum.LeadingSphere = &lead
+	if !sp.Converged {
+		sum.Warnings = append(sum.Warnings, "the swimming speed has not converged: run more periods ("+sp.Criterion+")")
+	}
+	m, err := Model(c)
+	if err != nil {
+		sum.Warnings = append(sum.Warnings, "reduced model: "+err.Error())
+		return
+	}
+	sum.Model = m
+	last := tr.rows[len(tr.rows)-1]
+	for _, ms := range m.Springs {
+		k := ms.Spring - 1
+		sum.Comparison = append(sum.Comparison, compare(fmt.Sprintf("spring %d extension amplitude (m)", ms.Spring), last.extAmp[k], ms.Amplitude))
+		sum.Comparison = append(sum.Comparison, Comparison{Quantity: fmt.Sprintf("spring %d extension phase (deg)", ms.Spring),
+			Simulated: last.extPhase[k], Model: ms.Phase, Ratio: math.NaN()})
+	}
+	for _, ms := range m.Spheres {
+		k := ms.Sphere - 1
+		sum.Comparison = append(sum.Comparison, compare(fmt.Sprintf("sphere %d amplitude relative to the container (m)", ms.Sphere), last.bodyAmp[k], ms.Amplitude))
+	}
+	// NaN is not valid JSON: drop undefined ratios and phases.
+	for i := range sum.Comparison {
+		if math.IsNaN(sum.Comparison[i].Ratio) {
+			sum.Comparison[i].Ratio = 0
+		}
+		if math.IsNaN(sum.Comparison[i].Simulated) {
+			sum.Comparison[i].Simulated = 0
+		}
+	}
+}
+
+func compare(q string, sim, model float64) Comparison {
+	c := Comparison{Quantity: q, Simulated: sim, Model: model, Ratio: math.NaN()}
+	if model != 0 {
+		c.Ratio = sim / model
+	}
+	return c
+}
+
+// argExtreme returns the 1-based index of the sphere furthest along
+// sign * z.
+func argExtreme(sim *Simulation, sign float64) int {
+	best, arg := math.Inf(-1), 0
+	for k := 0; k < sim.Spheres(); k++ {
+		z, _, _ := sim.SphereState(k)
+		if sign*z > best {
+			best, arg = sign*z, k+1
+		}
+	}
+	return arg
 }
 
 func nanNote(finite bool) string {
@@ -177,7 +349,7 @@ func nanNote(finite bool) string {
 func sampleSteps(c *cases.Case, l *cases.Lattice) []int64 {
 	var out []int64
 	if l.StepsPerPeriod > 0 {
-		per := c.Run.SamplesPerPeriod
+		per := max(1, c.Run.SamplesPerPeriod)
 		for p := 0; p < l.Steps/l.StepsPerPeriod; p++ {
 			for k := 1; k <= per; k++ {
 				out = append(out, int64(p*l.StepsPerPeriod+k*l.StepsPerPeriod/per))
@@ -192,7 +364,6 @@ func sampleSteps(c *cases.Case, l *cases.Lattice) []int64 {
 	if len(out) == 0 || out[len(out)-1] != int64(l.Steps) {
 		out = append(out, int64(l.Steps))
 	}
-	// keep them strictly increasing
 	w := 0
 	for i, n := range out {
 		if i == 0 || n > out[w-1] {

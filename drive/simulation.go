@@ -22,6 +22,7 @@ type Simulation struct {
 
 	fields *lbm.Fields
 	mass0  float64
+	sw     *swimmer // nil without spheres
 }
 
 // New sets up the case c on the lattice l with the given number of
@@ -42,6 +43,10 @@ func New(c *cases.Case, l *cases.Lattice, threads int) (*Simulation, error) {
 	s := &Simulation{Case: c, Lattice: l, Fluid: fl, FrameOnLiquid: periodic}
 	if f := c.Shaking.Frequency; f > 0 {
 		s.Shaker = Shaker{Amplitude: c.Shaking.Amplitude, Omega: 2 * math.Pi * f, Ramp: c.Shaking.RampPeriods / f}
+	}
+	if err := s.setupBodies(); err != nil {
+		fl.Close()
+		return nil, err
 	}
 	s.fields = fl.Fields(nil)
 	s.mass0 = fl.Mass3D(s.fields)
@@ -79,12 +84,19 @@ func (s *Simulation) liquidForce(t float64) float64 {
 	return -a * l.Dt * l.Dt / l.Dx
 }
 
-// Advance takes n lattice steps.
-func (s *Simulation) Advance(n int) {
+// Advance takes n lattice steps: the liquid streams and collides, then
+// the bodies move under the forces of that step (METHODS.md 9.4).
+func (s *Simulation) Advance(n int) error {
 	for i := 0; i < n; i++ {
 		s.Fluid.SetForce(s.liquidForce(s.Time()), 0)
 		s.Fluid.Step()
+		if s.sw != nil {
+			if err := s.stepBodies(s.Fluid.Steps()); err != nil {
+				return err
+			}
+		}
 	}
+	return nil
 }
 
 // Observation is the state of the liquid at one time, in SI units.
@@ -133,9 +145,19 @@ func (s *Simulation) Observe() Observation {
 		MaxSpeed:          umax * c,
 		Mach:              umax / math.Sqrt(lbm.Cs2),
 		MeanAxialVelocity: flux / vol * c,
-		MassDrift:         s.Fluid.Mass3D(f)/s.mass0 - 1,
+		MassDrift:         s.massDrift(f),
 		Finite:            finite,
 	}
+}
+
+// massDrift is the relative change of the liquid's 3D mass, or with
+// moving spheres (whose covered and uncovered nodes change the liquid's
+// lattice volume) of its mean density, after the corrections.
+func (s *Simulation) massDrift(f *lbm.Fields) float64 {
+	if s.sw != nil {
+		return s.Fluid.FluidDensity()/s.sw.mass.Rho0 - 1
+	}
+	return s.Fluid.Mass3D(f)/s.mass0 - 1
 }
 
 // Fields returns the fields of the last Observe.

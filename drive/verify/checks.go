@@ -27,6 +27,9 @@ func Checks() []Check {
 		{Name: "sphere-oscillating", Run: checkOscillating},
 		{Name: "sphere-wake", Run: checkWake},
 		{Name: "determinism-moving-sphere", Run: checkDeterminismBodies},
+		{Name: "free-sphere", Run: checkFreeSphere},
+		{Name: "scallop", Run: checkScallop},
+		{Name: "symmetric-pair", Run: checkSymmetric},
 		{Name: "womersley-fine", Full: true, Run: checkWomersleyFine},
 		{Name: "sphere-translating-fine", Full: true, Run: checkTranslatingFine},
 	}

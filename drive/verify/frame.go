@@ -33,7 +33,9 @@ func checkShakenClosed(threads int) ([]Row, error) {
 	var umax float64
 	per := l.StepsPerPeriod / 8
 	for n := 0; n < 8*3; n++ {
-		sim.Advance(per)
+		if err := sim.Advance(per); err != nil {
+			return nil, err
+		}
 		umax = math.Max(umax, sim.Observe().MaxSpeed)
 	}
 	aw := c.Shaking.Amplitude * 2 * math.Pi * c.Shaking.Frequency
@@ -69,7 +71,9 @@ func checkShakenPeriodic(threads int) ([]Row, error) {
 	l := sim.Lattice
 	// settle 12 viscous times, a whole number of periods
 	settle := int(12*R*R/nu/l.Dt/float64(l.StepsPerPeriod)+1) * l.StepsPerPeriod
-	sim.Advance(settle)
+	if err := sim.Advance(settle); err != nil {
+		return nil, err
+	}
 	w := Womersley{R: R, Nu: nu, Omega: 2 * math.Pi / (float64(l.StepsPerPeriod) * l.Dt),
 		G0: rho * c.Shaking.Amplitude * omega * omega, Rho: rho}
 	var uc complex128
@@ -78,7 +82,9 @@ func checkShakenPeriodic(threads int) ([]Row, error) {
 		fl := sim.Fields()
 		u := l.VelocitySI(fl.Uz[fl.At(0, 0)])
 		uc += complex(u, 0) * cmplx.Exp(complex(0, -w.Omega*o.Time))
-		sim.Advance(1)
+		if err := sim.Advance(1); err != nil {
+			return nil, err
+		}
 	}
 	uc *= complex(2/float64(l.StepsPerPeriod), 0)
 	// drive sin(omega t) = cos(omega t - pi/2): amplitude -i V

@@ -84,3 +84,20 @@ func TestChecks(t *testing.T) {
 		})
 	}
 }
+
+// TestReferenceFreeSphere checks FreeSphereResponse against the table of
+// CHECKS.md 4c ([D], 4 figures and 0.1 degree).
+func TestReferenceFreeSphere(t *testing.T) {
+	table := []struct{ s, x, amp, ph float64 }{
+		{0.5, 0.5, 1.0134, -1.8}, {0.5, 2, 1.1500, -5.7}, {0.5, 10, 1.3944, -3.3},
+		{2, 0.5, 0.9715, 3.4}, {2, 1, 0.8952, 6.7}, {2, 2, 0.7804, 7.8}, {2, 5, 0.6747, 5.1},
+		{5, 1, 0.6536, 20.1}, {5, 2, 0.4565, 18.4},
+	}
+	for _, c := range table {
+		r := FreeSphereResponse(c.s, c.x)
+		if math.Abs(cmplx.Abs(r)-c.amp) > 6e-5 || math.Abs(phaseDeg(r, 1)-c.ph) > 0.06 {
+			t.Errorf("s=%g a/delta=%g: %.5f at %.2f deg, CHECKS.md 4c gives %.4f at %.1f", c.s, c.x,
+				cmplx.Abs(r), phaseDeg(r, 1), c.amp, c.ph)
+		}
+	}
+}

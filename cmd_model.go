@@ -1,0 +1,80 @@
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+
+	"axiswim/drive"
+)
+
+// cmdModel prints the reduced linear model of a case (drive.Model): the
+// amplitude and phase of every sphere and spring, the forces of the arms,
+// and what the model leaves out.
+func cmdModel(args []string, stdout, stderr io.Writer) error {
+	fs := newFlags("model", stderr)
+	asJSON := fs.Bool("json", false, "print the result as JSON")
+	fs.Usage = func() {
+		fmt.Fprintln(stderr, "usage: axiswim model [-json] CASE.toml")
+		fmt.Fprintln(stderr, "Solves the reduced linear model of the case: each sphere alone in unsteady Stokes flow")
+		fmt.Fprintln(stderr, "(Landau-Lifshitz force), joined by its springs and arms. No lattice is run.")
+		fs.PrintDefaults()
+	}
+	if err := parseFlags(fs, args); err != nil {
+		return err
+	}
+	if fs.NArg() != 1 {
+		return fmt.Errorf("%w: give one case file (see 'axiswim cases' for examples)", errUsage)
+	}
+	c, _, name, err := loadCase(fs.Arg(0))
+	if err != nil {
+		return err
+	}
+	r, err := drive.Model(c)
+	if err != nil {
+		return err
+	}
+	if *asJSON {
+		b, err := json.MarshalIndent(r, "", "  ")
+		if err != nil {
+			return fmt.Errorf("model: encode the result: %w", err)
+		}
+		_, err = fmt.Fprintf(stdout, "%s\n", b)
+		return err
+	}
+
+	fmt.Fprintf(stdout, "%s: reduced linear model at %.6g Hz (omega = %.6g rad/s), drive amplitude %.4g m\n",
+		name, r.Omega/(2*math.Pi), r.Omega, r.DriveAmplitude)
+	if r.DriveAmplitude > 0 {
+		fmt.Fprintln(stdout, "amplitudes of the motion relative to the container; phases in degrees against the drive displacement A sin(omega t)")
+	} else {
+		fmt.Fprintln(stdout, "amplitudes of the motion relative to the container; phases in degrees against sin(omega t), from which the arms' phases count")
+	}
+
+	fmt.Fprintf(stdout, "\n  %-7s %10s %14s %12s\n", "sphere", "a/delta", "amplitude (m)", "phase (deg)")
+	for _, s := range r.Spheres {
+		fmt.Fprintf(stdout, "  %-7d %10.4g %14.4g %12.1f\n", s.Sphere, s.RadiusOverDelta, s.Amplitude, s.Phase)
+	}
+	if len(r.Springs) > 0 {
+		fmt.Fprintf(stdout, "\n  %-7s %14s %12s %22s\n", "spring", "extension (m)", "phase (deg)", "static extension (m)")
+		for _, s := range r.Springs {
+			static := "not held (see notes)"
+			if s.Balanced {
+				static = fmt.Sprintf("%.4g", s.Static)
+			}
+			fmt.Fprintf(stdout, "  %-7d %14.4g %12.1f %22s\n", s.Spring, s.Amplitude, s.Phase, static)
+		}
+	}
+	if len(r.Arms) > 0 {
+		fmt.Fprintf(stdout, "\n  %-7s %14s %12s %16s\n", "arm", "push (N)", "phase (deg)", "mean power (W)")
+		for _, a := range r.Arms {
+			fmt.Fprintf(stdout, "  %-7d %14.4g %12.1f %16.4g\n", a.Arm, a.Force, a.ForcePhase, a.Power)
+		}
+	}
+	fmt.Fprintln(stdout, "\nnotes:")
+	for _, n := range r.Notes {
+		fmt.Fprintf(stdout, "  - %s\n", n)
+	}
+	return nil
+}

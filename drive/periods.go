@@ -1,0 +1,141 @@
+package drive
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+
+	"axiswim/output"
+)
+
+// periodTracker accumulates, over each drive period, the fundamental
+// Fourier component of the drive displacement, of every spring's extension
+// and of every sphere's displacement relative to the container, and the
+// stroboscopic centroid at each period's end.
+type periodTracker struct {
+	sim       *Simulation
+	omega     float64 // rad/s
+	steps     int     // per period
+	n         int     // steps accumulated in the current period
+	drive     complex128
+	ramp      complex128 // sum of (n/steps) e^{-i w t}: removes a steady drift
+	ext, body []complex128
+	lo, hi    []float64 // extension range over the period
+	z0        []float64 // sphere centres at the start
+	Centroids []float64 // at the end of each period (index 0: start)
+	rows      []periodRow
+}
+
+type periodRow struct {
+	period            int
+	time, centroid    float64
+	displacement      float64
+	extAmp, extPhase  []float64
+	bodyAmp, bodyPhas []float64
+}
+
+func newPeriodTracker(sim *Simulation) *periodTracker {
+	ns, nk := sim.Spheres(), len(sim.sw.dyn.Springs)
+	p := &periodTracker{sim: sim, omega: sim.Lattice.Omega, steps: sim.Lattice.StepsPerPeriod,
+		ext: make([]complex128, nk), body: make([]complex128, ns),
+		lo: make([]float64, nk), hi: make([]float64, nk), z0: make([]float64, ns)}
+	for k := range p.z0 {
+		p.z0[k], _, _ = sim.SphereState(k)
+	}
+	p.Centroids = []float64{sim.Centroid()}
+	p.reset()
+	return p
+}
+
+func (p *periodTracker) reset() {
+	p.n, p.drive, p.ramp = 0, 0, 0
+	for k := range p.ext {
+		p.ext[k] = 0
+		p.lo[k], p.hi[k] = math.Inf(1), math.Inf(-1)
+	}
+	for k := range p.body {
+		p.body[k] = 0
+	}
+}
+
+// step records the state after a lattice step; at the end of a period it
+// closes the period's row.
+func (p *periodTracker) step() {
+	s := p.sim
+	t := s.Time()
+	ph := cmplx.Exp(complex(0, -p.omega*t))
+	p.drive += complex(s.Shaker.Displacement(t), 0) * ph
+	for k := range p.ext {
+		e := s.SpringExtension(k)
+		p.ext[k] += complex(e, 0) * ph
+		p.lo[k], p.hi[k] = math.Min(p.lo[k], e), math.Max(p.hi[k], e)
+	}
+	for k := range p.body {
+		z, _, _ := s.SphereState(k)
+		p.body[k] += complex(z-p.z0[k], 0) * ph
+	}
+	p.n++
+	p.ramp += complex(float64(p.n)/float64(p.steps), 0) * ph
+	if p.n < p.steps {
+		return
+	}
+	c := s.Centroid()
+	r := periodRow{period: len(p.Centroids), time: t, centroid: c, displacement: c - p.Centroids[len(p.Centroids)-1]}
+	for k := range p.ext {
+		r.extAmp = append(r.extAmp, 0.5*(p.hi[k]-p.lo[k]))
+		r.extPhase = append(r.extPhase, phaseAgainst(p.ext[k], p.drive))
+	}
+	for k := range p.body {
+		// remove the drift over the period, a linear ramp, from the
+		// fundamental, and restart the reference at the period's end
+		z, _, _ := s.SphereState(k)
+		f := p.body[k] - complex(z-p.z0[k], 0)*p.ramp
+		r.bodyAmp = append(r.bodyAmp, 2*cmplx.Abs(f)/float64(p.n))
+		r.bodyPhas = append(r.bodyPhas, phaseAgainst(f, p.drive))
+		p.z0[k] = z
+	}
+	p.Centroids = append(p.Centroids, c)
+	p.rows = append(p.rows, r)
+	p.reset()
+}
+
+// phaseAgainst returns the phase of z relative to ref in degrees (NaN
+// without a reference).
+func phaseAgainst(z, ref complex128) float64 {
+	if ref == 0 {
+		return math.NaN()
+	}
+	return cmplx.Phase(z/ref) * 180 / math.Pi
+}
+
+// periodColumns are the columns of periods.csv.
+func (p *periodTracker) columns() []output.Column {
+	cols := []output.Column{
+		{Name: "period", Doc: "drive period number"},
+		{Name: "time_s", Doc: "time at the end of the period"},
+		{Name: "centroid_m", Doc: "stroboscopic centroid (mean of the sphere centres) at the period's end"},
+		{Name: "displacement_m", Doc: "centroid displacement over the period"},
+	}
+	for k := range p.ext {
+		cols = append(cols,
+			output.Column{Name: fmt.Sprintf("spring%d_amplitude_m", k+1), Doc: "half the extension's range over the period"},
+			output.Column{Name: fmt.Sprintf("spring%d_phase_deg", k+1), Doc: "phase of the extension's fundamental against the drive displacement"})
+	}
+	for k := range p.body {
+		cols = append(cols,
+			output.Column{Name: fmt.Sprintf("sphere%d_amplitude_m", k+1), Doc: "fundamental amplitude of the motion relative to the container"},
+			output.Column{Name: fmt.Sprintf("sphere%d_phase_deg", k+1), Doc: "its phase against the drive displacement"})
+	}
+	return cols
+}
+
+func (r periodRow) values() []float64 {
+	v := []float64{float64(r.period), r.time, r.centroid, r.displacement}
+	for k := range r.extAmp {
+		v = append(v, r.extAmp[k], r.extPhase[k])
+	}
+	for k := range r.bodyAmp {
+		v = append(v, r.bodyAmp[k], r.bodyPhas[k])
+	}
+	return v
+}
