@@ -2,11 +2,11 @@ package main
 
 import (
 	"context"
-	"math"
 	"errors"
 	"flag"
 	"fmt"
 	"io"
+	"math"
 	"os"
 	"os/signal"
 	"path/filepath"
