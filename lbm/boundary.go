@@ -220,3 +220,20 @@ func (s *Solver) boundaryPass(record bool) {
 		}
 	}
 }
+
+// BoundaryReaction returns zeta, the immediate reaction of body id's link
+// force to its wall velocity: the force of a Step contains -zeta u_w
+// through the moving-wall terms, zeta = sum over links of
+// 2 pi r_mid 6 c_w w_i e_iz^2 (Ladd & Verberg 2001, J. Stat. Phys. 104,
+// 1191; METHODS.md 8.4). An explicit body update of mass m is unstable when
+// zeta/m > 2.
+func (s *Solver) BoundaryReaction(id int) float64 {
+	if id >= len(s.bodies) {
+		return 0
+	}
+	var z float64
+	for _, p := range s.bodies[id].links {
+		z += p.ring * p.cw * (-p.wallTerm) * p.ez
+	}
+	return z
+}

@@ -28,10 +28,14 @@ func Checks() []Check {
 		{Name: "sphere-wake", Run: checkWake},
 		{Name: "determinism-moving-sphere", Run: checkDeterminismBodies},
 		{Name: "free-sphere", Run: checkFreeSphere},
+		{Name: "light-sphere", Run: checkLightSphere},
+		{Name: "model-vs-simulation", Run: checkModel},
+		{Name: "spring-energy", Run: checkEnergy},
 		{Name: "scallop", Run: checkScallop},
 		{Name: "symmetric-pair", Run: checkSymmetric},
 		{Name: "womersley-fine", Full: true, Run: checkWomersleyFine},
 		{Name: "sphere-translating-fine", Full: true, Run: checkTranslatingFine},
+		{Name: "demo-resolution", Full: true, Run: checkDemoResolution},
 	}
 }
 
