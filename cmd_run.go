@@ -149,8 +149,8 @@ func printSummary(w io.Writer, dir string, sum *drive.Summary) {
 			fmt.Fprintf(w, "  net displacement of the centroid %.4g m over the whole run\n", *sum.NetDisplacement)
 		}
 		for _, c := range sum.Comparison {
-			if c.Ratio != 0 {
-				fmt.Fprintf(w, "  %-52s simulated %.4g, linear model %.4g (ratio %.3f)\n", c.Quantity, c.Simulated, c.Model, c.Ratio)
+			if c.Ratio != nil {
+				fmt.Fprintf(w, "  %-52s simulated %.4g, linear model %.4g (ratio %.3f)\n", c.Quantity, c.Simulated, c.Model, *c.Ratio)
 			} else {
 				fmt.Fprintf(w, "  %-52s simulated %.4g, linear model %.4g\n", c.Quantity, c.Simulated, c.Model)
 			}

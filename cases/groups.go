@@ -12,15 +12,16 @@ import "math"
 // run. Groups built from A are therefore upper-bound scales, exact only
 // for a sphere held fixed in the laboratory frame.
 type SphereGroups struct {
-	Sphere  int     // 1-based index
-	Epsilon float64 // amplitude ratio A/a
-	M2      float64 // frequency parameter ω a²/ν (Womersley number squared)
-	Re      float64 // oscillatory Reynolds number A ω a/ν = ε M²
-	ReS     float64 // streaming Reynolds number A² ω/ν = ε² M²
+	Sphere  int     `json:"sphere"`  // 1-based index
+	Epsilon float64 `json:"epsilon"` // amplitude ratio A/a
+	M2      float64 `json:"m2"`      // frequency parameter ω a²/ν (Womersley number squared)
+	Re      float64 `json:"re"`      // oscillatory Reynolds number A ω a/ν = ε M²
+	ReS     float64 `json:"re_s"`    // streaming Reynolds number A² ω/ν = ε² M²
 	// Delta is the Stokes-layer thickness √(2ν/ω) in metres, and
 	// DeltaCells the same in cells of the lattice. Both are 0 without
 	// shaking, and DeltaCells is 0 when no lattice is given.
-	Delta, DeltaCells float64
+	Delta      float64 `json:"stokes_layer_m"`
+	DeltaCells float64 `json:"stokes_layer_cells"`
 }
 
 // Groups returns the groups of every sphere of c. l may be nil; it is used

@@ -355,8 +355,8 @@ func ExampleModel() {
 			s.Spring, s.Amplitude*1e3, s.Phase, s.Static*1e3)
 	}
 	// Output:
-	// f = 35 Hz, drive amplitude 0.6 mm
-	// sphere 1: 0.0331 mm at -154.3 deg relative to the container (a/delta = 3.95)
-	// sphere 2: 0.1096 mm at +37.9 deg relative to the container (a/delta = 2.63)
-	// spring 1: 0.1421 mm at +35.1 deg, static extension 0.1704 mm
+	// f = 35 Hz, drive amplitude 1 mm
+	// sphere 1: 0.0793 mm at -153.9 deg relative to the container (a/delta = 3.95)
+	// sphere 2: 0.2838 mm at +40.8 deg relative to the container (a/delta = 2.63)
+	// spring 1: 0.3611 mm at +37.6 deg, static extension 0.2485 mm
 }

@@ -51,6 +51,7 @@ type Summary struct {
 	MLUPS         float64        `json:"mlups"`
 	Lattice       LatticeSummary `json:"lattice"`
 	MaxMach       float64        `json:"max_mach"`
+	FinalMaxSpeed float64        `json:"final_max_speed_m_s"`
 	MaxMassDrift  float64        `json:"max_mass_drift"`
 	MassCorrected float64        `json:"mass_correction_applied,omitempty"`
 	Warnings      []string       `json:"warnings"`
@@ -59,10 +60,10 @@ type Summary struct {
 // Comparison is one quantity from the simulation beside the reduced
 // linear model's value.
 type Comparison struct {
-	Quantity  string  `json:"quantity"`
-	Simulated float64 `json:"simulated"`
-	Model     float64 `json:"model"`
-	Ratio     float64 `json:"ratio"`
+	Quantity  string   `json:"quantity"`
+	Simulated float64  `json:"simulated"`
+	Model     float64  `json:"model"`
+	Ratio     *float64 `json:"ratio,omitempty"` // simulated/model for amplitudes
 }
 
 // LatticeSummary records the lattice parameters of a run.
@@ -177,6 +178,7 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 		row = append(row, o.MaxSpeed, o.Mach, o.MassDrift)
 		keep(series.Row(row...))
 		sum.MaxMach = math.Max(sum.MaxMach, o.Mach)
+		sum.FinalMaxSpeed = o.MaxSpeed
 		sum.MaxMassDrift = math.Max(sum.MaxMassDrift, math.Abs(o.MassDrift))
 		return o
 	}
@@ -298,27 +300,27 @@ func summarizeSwimmer(sum *Summary, sim *Simulation, tr *periodTracker) {
 		k := ms.Spring - 1
 		sum.Comparison = append(sum.Comparison, compare(fmt.Sprintf("spring %d extension amplitude (m)", ms.Spring), last.extAmp[k], ms.Amplitude))
 		sum.Comparison = append(sum.Comparison, Comparison{Quantity: fmt.Sprintf("spring %d extension phase (deg)", ms.Spring),
-			Simulated: last.extPhase[k], Model: ms.Phase, Ratio: math.NaN()})
+			Simulated: finiteOr0(last.extPhase[k]), Model: ms.Phase})
 	}
 	for _, ms := range m.Spheres {
 		k := ms.Sphere - 1
 		sum.Comparison = append(sum.Comparison, compare(fmt.Sprintf("sphere %d amplitude relative to the container (m)", ms.Sphere), last.bodyAmp[k], ms.Amplitude))
 	}
-	// NaN is not valid JSON: drop undefined ratios and phases.
-	for i := range sum.Comparison {
-		if math.IsNaN(sum.Comparison[i].Ratio) {
-			sum.Comparison[i].Ratio = 0
-		}
-		if math.IsNaN(sum.Comparison[i].Simulated) {
-			sum.Comparison[i].Simulated = 0
-		}
+}
+
+// finiteOr0 maps NaN (not valid JSON) to 0.
+func finiteOr0(x float64) float64 {
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return 0
 	}
+	return x
 }
 
 func compare(q string, sim, model float64) Comparison {
-	c := Comparison{Quantity: q, Simulated: sim, Model: model, Ratio: math.NaN()}
+	c := Comparison{Quantity: q, Simulated: finiteOr0(sim), Model: model}
 	if model != 0 {
-		c.Ratio = sim / model
+		r := sim / model
+		c.Ratio = &r
 	}
 	return c
 }
