@@ -56,9 +56,10 @@ const (
 	// Rüde (arXiv:2103.10882) develop a virtual-mass correction for
 	// lattice-Boltzmann coupling.
 	CouplingVirtualMass = "virtual-mass"
-	// CouplingExplicit is the plain explicit update, unstable for spheres
-	// lighter than C_A = 1/2 of the liquid's density (METHODS.md 8.1); it is
-	// kept to show that failure.
+	// CouplingExplicit is the plain explicit update, unstable for light
+	// spheres (METHODS.md 8.1; on the lattice measured below a density
+	// ratio of about 0.2 at 8 cells per radius); it is kept to show that
+	// failure.
 	CouplingExplicit = "explicit"
 )
 

@@ -9,7 +9,8 @@ import (
 // derivatives of Displacement (central differences, error O(h^2)), through
 // the ramp and after it.
 func TestShakerDerivatives(t *testing.T) {
-	s := Shaker{Amplitude: 6e-4, Omega: 2 * math.Pi * 35, Ramp: 2 / 35.0}
+	s := Shaker{Amplitude: 6e-4, Omega: 2 * math.Pi * 35, Ramp: 2 / 35.0,
+		Harmonics: []Harmonic{{Order: 2, Amplitude: 1e-4, Phase: 0.3}}}
 	const h = 1e-7
 	for _, tm := range []float64{0.001, 0.013, 0.03, 0.056, 0.2} {
 		v := (s.Displacement(tm+h) - s.Displacement(tm-h)) / (2 * h)

@@ -43,6 +43,10 @@ func New(c *cases.Case, l *cases.Lattice, threads int) (*Simulation, error) {
 	s := &Simulation{Case: c, Lattice: l, Fluid: fl, FrameOnLiquid: periodic}
 	if f := c.Shaking.Frequency; f > 0 {
 		s.Shaker = Shaker{Amplitude: c.Shaking.Amplitude, Omega: 2 * math.Pi * f, Ramp: c.Shaking.RampPeriods / f}
+		for _, h := range c.Shaking.Harmonics {
+			s.Shaker.Harmonics = append(s.Shaker.Harmonics,
+				Harmonic{Order: h.Order, Amplitude: h.Amplitude, Phase: h.Phase * math.Pi / 180})
+		}
 	}
 	if err := s.setupBodies(); err != nil {
 		fl.Close()
