@@ -6,7 +6,7 @@ import (
 )
 
 func TestList(t *testing.T) {
-	want := []string{"demo", "pipe-poiseuille", "shaken-cell"}
+	want := []string{"demo", "pipe-poiseuille", "shaken-cell", "stroke-pair"}
 	if got := List(); !reflect.DeepEqual(got, want) {
 		t.Errorf("List() = %q, want %q", got, want)
 	}

@@ -152,8 +152,8 @@ func TestResolveLimits(t *testing.T) {
 		if l.Radius != float64(l.Nr)*l.Dx || l.Length != float64(l.Nz)*l.Dx {
 			t.Errorf("%s: effective size %g x %g, want Nz Dx x Nr Dx", name, l.Length, l.Radius)
 		}
-		if c.Shaking.Frequency > 0 {
-			T := 1 / c.Shaking.Frequency
+		if f := periodFrequency(c); f > 0 {
+			T := 1 / f
 			if !within(float64(l.StepsPerPeriod)*l.Dt, T, 1e-12) {
 				t.Errorf("%s: %d steps of %g s = %g s, want the period %g s", name, l.StepsPerPeriod, l.Dt, float64(l.StepsPerPeriod)*l.Dt, T)
 			}
@@ -161,7 +161,7 @@ func TestResolveLimits(t *testing.T) {
 				t.Errorf("%s: Steps = %d, want %d x %d", name, l.Steps, l.StepsPerPeriod, c.Run.Periods)
 			}
 		} else if l.StepsPerPeriod != 0 {
-			t.Errorf("%s: StepsPerPeriod = %d without shaking", name, l.StepsPerPeriod)
+			t.Errorf("%s: StepsPerPeriod = %d without shaking or strokes", name, l.StepsPerPeriod)
 		}
 		if !within(l.NuL, l.Nu*l.Dt/(l.Dx*l.Dx), 1e-12) || !within(l.Tau, 3*l.NuL+0.5, 1e-12) {
 			t.Errorf("%s: nu_L %g, tau %g inconsistent with dt %g", name, l.NuL, l.Tau, l.Dt)
@@ -346,4 +346,19 @@ func TestConversions(t *testing.T) {
 	if got := l.Pressure(want); !within(got, rhoL, 1e-12) {
 		t.Errorf("Pressure(%g) = %g, want %g", want, got, rhoL)
 	}
+}
+
+// periodFrequency is the frequency that sets a case's period: the drive's,
+// or without shaking the slowest arm's.
+func periodFrequency(c *Case) float64 {
+	if c.Shaking.Frequency > 0 {
+		return c.Shaking.Frequency
+	}
+	f := 0.0
+	for _, a := range c.Arms {
+		if f == 0 || a.Frequency < f {
+			f = a.Frequency
+		}
+	}
+	return f
 }

@@ -36,7 +36,8 @@ type periodRow struct {
 
 func newPeriodTracker(sim *Simulation) *periodTracker {
 	ns, nk := sim.Spheres(), len(sim.sw.dyn.Springs)
-	p := &periodTracker{sim: sim, omega: sim.Lattice.Omega, steps: sim.Lattice.StepsPerPeriod,
+	l := sim.Lattice
+	p := &periodTracker{sim: sim, omega: 2 * math.Pi / (float64(l.StepsPerPeriod) * l.Dt), steps: l.StepsPerPeriod,
 		ext: make([]complex128, nk), body: make([]complex128, ns),
 		lo: make([]float64, nk), hi: make([]float64, nk), z0: make([]float64, ns)}
 	for k := range p.z0 {

@@ -186,7 +186,7 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 		if tracker == nil || len(tracker.Centroids) < 3 {
 			return ""
 		}
-		sp := SwimmingSpeed(tracker.Centroids, 1/c.Shaking.Frequency, rampPeriods(c))
+		sp := SwimmingSpeed(tracker.Centroids, float64(l.StepsPerPeriod)*l.Dt, rampPeriods(c))
 		return fmt.Sprintf("mean speed %.3g +- %.2g m/s", sp.Mean, sp.Uncertainty)
 	}
 	record()
