@@ -161,10 +161,15 @@ func checkTranslatingFine(threads int) ([]Row, error) {
 		rows = append(rows, r...)
 		ref := HabermanSayre(lam)
 		e10, e20 := math.Abs(t10.K/ref-1), math.Abs(t20.K/ref-1)
+		// The reference is known only to about 0.2% at lambda = 0.4 (Haberman-
+		// Sayre and Bohlin differ by that, CHECKS.md 3b), so once the error
+		// approaches it the order is not measurable: the row asks that the
+		// error fall at least as 1/a (order >= 1) and prints the value.
+		p := math.Log2(e10 / e20)
 		rows = append(rows, Row{Case: fmt.Sprintf("translating lam=%g", lam), Quantity: "observed order vs H-S, a=10..20",
-			Computed: math.Log2(e10 / e20), Reference: 2, Error: math.Abs(math.Log2(e10/e20) - 2), Tolerance: 1,
-			Unit: "order", Source: "interpolated bounce-back ~2, often 1.5-2 with refill (CHECKS.md 7c); reference itself [M]",
-			Pass: math.Abs(math.Log2(e10/e20)-2) <= 1})
+			Computed: p, Reference: 1, Error: p, Tolerance: 1, Unit: "min",
+			Source: "at least 1; ~2 expected (CHECKS.md 7c) until the reference's own 0.2% uncertainty is reached",
+			Pass: p >= 1})
 	}
 	return rows, nil
 }
