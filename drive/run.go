@@ -289,6 +289,9 @@ func summarizeSwimmer(sum *Summary, sim *Simulation, tr *periodTracker) {
 	if !sp.Converged {
 		sum.Warnings = append(sum.Warnings, "the swimming speed has not converged: run more periods ("+sp.Criterion+")")
 	}
+	if w := settlingWarning(c, sp.Mean); w != "" {
+		sum.Warnings = append(sum.Warnings, w)
+	}
 	m, err := Model(c)
 	if err != nil {
 		sum.Warnings = append(sum.Warnings, "reduced model: "+err.Error())
@@ -374,4 +377,28 @@ func sampleSteps(c *cases.Case, l *cases.Lattice) []int64 {
 		}
 	}
 	return out[:w]
+}
+
+// settlingWarning says when the spheres are not neutrally buoyant as a
+// whole and gravity alone would move them at a speed comparable with the
+// swimming speed u: the estimate is the net weight over the sum of the
+// spheres' Stokes drags 6 pi mu a (isolated spheres; walls slow it down).
+func settlingWarning(c *cases.Case, u float64) string {
+	g := c.Shaking.Gravity
+	if g == 0 || len(c.Springs)+len(c.Arms) == 0 {
+		return ""
+	}
+	var w, drag float64
+	for _, s := range c.Spheres {
+		vol := 4.0 / 3 * math.Pi * s.Radius * s.Radius * s.Radius
+		w += (s.Density - c.Fluid.Density) * vol * g
+		drag += 6 * math.Pi * c.Fluid.Viscosity * s.Radius
+	}
+	v := w / drag
+	if math.Abs(v) < 0.1*math.Abs(u) {
+		return ""
+	}
+	return fmt.Sprintf("the spheres are not neutrally buoyant as a whole: their net weight %.3g N alone would move them "+
+		"at about %.2g m/s (Stokes estimate), %.0f%% of the swimming speed; the measured speed includes that settling",
+		w, v, 100*math.Abs(v/u))
 }
