@@ -169,7 +169,7 @@ func checkTranslatingFine(threads int) ([]Row, error) {
 		rows = append(rows, Row{Case: fmt.Sprintf("translating lam=%g", lam), Quantity: "observed order vs H-S, a=10..20",
 			Computed: p, Reference: 1, Error: p, Tolerance: 1, Unit: "min",
 			Source: "at least 1; ~2 expected (CHECKS.md 7c) until the reference's own 0.2% uncertainty is reached",
-			Pass: p >= 1})
+			Pass:   p >= 1})
 	}
 	return rows, nil
 }
