@@ -97,14 +97,7 @@ func checkDeterminism(int) ([]Row, error) {
 				ref = st
 				continue
 			}
-			diff := 0
-			for i := range st {
-				for n := range st[i] {
-					if math.Float64bits(st[i][n]) != math.Float64bits(ref[i][n]) {
-						diff++
-					}
-				}
-			}
+			diff := bitDiff(st, ref)
 			rows = append(rows, Row{Case: "determinism " + col.String(), Quantity: fmt.Sprintf("differing values, %d vs 1 goroutines", th),
 				Computed: float64(diff), Error: float64(diff), Tolerance: 0, Unit: "bound",
 				Source: "bit-for-bit reproducibility (design rule)", Pass: diff == 0})
@@ -139,14 +132,7 @@ func checkDeterminismBodies(int) ([]Row, error) {
 			ref, refForce = st, fsum
 			continue
 		}
-		diff := 0
-		for i := range st {
-			for n := range st[i] {
-				if math.Float64bits(st[i][n]) != math.Float64bits(ref[i][n]) {
-					diff++
-				}
-			}
-		}
+		diff := bitDiff(st, ref)
 		if math.Float64bits(fsum) != math.Float64bits(refForce) {
 			diff++
 		}
@@ -155,4 +141,17 @@ func checkDeterminismBodies(int) ([]Row, error) {
 			Source: "bit-for-bit reproducibility (design rule)", Pass: diff == 0})
 	}
 	return rows, nil
+}
+
+// bitDiff counts the populations whose bits differ.
+func bitDiff(a, b [lbm.Q][]float64) int {
+	diff := 0
+	for i := range a {
+		for n := range a[i] {
+			if math.Float64bits(a[i][n]) != math.Float64bits(b[i][n]) {
+				diff++
+			}
+		}
+	}
+	return diff
 }
