@@ -21,6 +21,7 @@ type rawCase struct {
 	Spring    []rawSpring   `toml:"spring"`
 	Arm       []rawArm      `toml:"arm"`
 	Bodies    *rawBodies    `toml:"bodies"`
+	Output    *rawOutput    `toml:"output"`
 	Grid      *rawGrid      `toml:"grid"`
 	Solver    *rawSolver    `toml:"solver"`
 	Run       *rawRun       `toml:"run"`
@@ -76,6 +77,15 @@ type rawBodies struct {
 	VirtualMass    *float64 `toml:"virtual_mass"`
 	Coupling       *string  `toml:"coupling"`
 	RepulsionRange *float64 `toml:"repulsion_range"`
+}
+
+type rawOutput struct {
+	SnapshotsPerPeriod *int  `toml:"snapshots_per_period"`
+	SnapshotPeriods    *int  `toml:"snapshot_periods"`
+	AveragePeriods     *int  `toml:"average_periods"`
+	Mirror             *bool `toml:"mirror"`
+	VTK                *bool `toml:"vtk"`
+	Pictures           *bool `toml:"pictures"`
 }
 
 type rawGrid struct {
@@ -249,6 +259,14 @@ func (r *rawCase) toCase() *Case {
 		set(&a.Phase, ra.Phase)
 		set(&a.Frequency, ra.Frequency)
 		c.Arms = append(c.Arms, a)
+	}
+	if o := r.Output; o != nil {
+		set(&c.Output.SnapshotsPerPeriod, o.SnapshotsPerPeriod)
+		set(&c.Output.SnapshotPeriods, o.SnapshotPeriods)
+		set(&c.Output.AveragePeriods, o.AveragePeriods)
+		set(&c.Output.Mirror, o.Mirror)
+		set(&c.Output.VTK, o.VTK)
+		set(&c.Output.Pictures, o.Pictures)
 	}
 	if b := r.Bodies; b != nil {
 		set(&c.Bodies.VirtualMass, b.VirtualMass)

@@ -207,3 +207,24 @@ func TestEditDistance(t *testing.T) {
 		}
 	}
 }
+
+// TestOutputDefaults: without an [output] section a case writes 8
+// snapshots over the last period, mirrored VTK and pictures; the keys are
+// read when given.
+func TestOutputDefaults(t *testing.T) {
+	src, _ := Get("demo")
+	c, err := Parse("demo", src)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if o := c.Output; o.SnapshotsPerPeriod != 8 || o.SnapshotPeriods != 1 || !o.Mirror || !o.VTK || !o.Pictures {
+		t.Errorf("defaults %+v", o)
+	}
+	c, err = Parse("x", append(append([]byte{}, src...), []byte("\n[output]\nvtk = false\nsnapshots_per_period = 4\n")...))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if c.Output.VTK || c.Output.SnapshotsPerPeriod != 4 || !c.Output.Pictures {
+		t.Errorf("given %+v", c.Output)
+	}
+}

@@ -78,6 +78,14 @@ func (c *Case) WriteTOML(w io.Writer) error {
 	e.str("coupling", cc.Bodies.Coupling, `"virtual-mass" or "explicit"`)
 	e.float("repulsion_range", cc.Bodies.RepulsionRange, "cells")
 
+	e.table("output")
+	e.line("snapshots_per_period = %d # field snapshots per period (0: none)", cc.Output.SnapshotsPerPeriod)
+	e.line("snapshot_periods = %d # over the last periods", cc.Output.SnapshotPeriods)
+	e.line("average_periods = %d # final periods of the mean fields (0: the speed window)", cc.Output.AveragePeriods)
+	e.line("mirror = %t # VTK shows the full meridian plane", cc.Output.Mirror)
+	e.line("vtk = %t", cc.Output.VTK)
+	e.line("pictures = %t", cc.Output.Pictures)
+
 	e.table("grid")
 	if cc.Grid.CellsPerRadius != 0 {
 		e.line("cells_per_radius = %d # across the smallest sphere", cc.Grid.CellsPerRadius)

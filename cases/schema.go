@@ -101,6 +101,7 @@ type Case struct {
 	Springs   []Spring // [[spring]]
 	Arms      []Arm    // [[arm]]
 	Bodies    Bodies
+	Output    Output
 	Grid      Grid
 	Solver    Solver
 	Run       Run
@@ -233,7 +234,28 @@ func Default() *Case {
 		Bodies: Bodies{VirtualMass: DefaultVirtualMass, Coupling: DefaultCoupling,
 			RepulsionRange: DefaultRepulsionRange},
 		Solver: Solver{Collision: DefaultCollision, Magic: DefaultMagic},
+		Output: Output{SnapshotsPerPeriod: DefaultSnapshotsPerPeriod, SnapshotPeriods: 1,
+			Mirror: true, VTK: true, Pictures: true},
 	}
+}
+
+// DefaultSnapshotsPerPeriod is the number of field snapshots per drive
+// period written over the last snapshot_periods periods.
+const DefaultSnapshotsPerPeriod = 8
+
+// Output is the [output] section: which fields and pictures a run writes.
+type Output struct {
+	// SnapshotsPerPeriod field snapshots at evenly spaced phases of each of
+	// the last SnapshotPeriods periods (0: none).
+	SnapshotsPerPeriod int
+	SnapshotPeriods    int
+	// AveragePeriods is the number of final periods over which the mean
+	// (steady streaming) and phase-averaged fields are accumulated; 0 means
+	// the window of the swimming-speed estimate.
+	AveragePeriods int
+	Mirror         bool // VTK files show the full meridian plane -R..R
+	VTK            bool // write VTK XML fields
+	Pictures       bool // write PNG pictures
 }
 
 // FillDefaults fills in every optional value that is zero (that is, not

@@ -73,6 +73,7 @@ func (c *Case) Validate() error {
 	c.validateGrid(&v)
 	c.validateSolver(&v)
 	c.validateRun(&v)
+	c.validateOutput(&v)
 	if len(v.ps) == 0 {
 		return nil
 	}
@@ -517,4 +518,20 @@ func formatBytes(b float64) string {
 		return fmt.Sprintf("%.1f GiB", b/gib)
 	}
 	return fmt.Sprintf("%.1f MiB", b/(1<<20))
+}
+
+func (c *Case) validateOutput(v *validator) {
+	o := c.Output
+	if o.SnapshotsPerPeriod < 0 {
+		v.add("output.snapshots_per_period", o.SnapshotsPerPeriod, "must not be negative", "give 0 for none, or e.g. 8")
+	}
+	if o.SnapshotPeriods < 0 {
+		v.add("output.snapshot_periods", o.SnapshotPeriods, "must not be negative", "give the number of final periods, e.g. 1")
+	}
+	if o.AveragePeriods < 0 {
+		v.add("output.average_periods", o.AveragePeriods, "must not be negative", "give 0 for the swimming-speed window, or a number of periods")
+	}
+	if p := c.Run.Periods; p > 0 && o.AveragePeriods > p {
+		v.add("output.average_periods", o.AveragePeriods, fmt.Sprintf("exceeds run.periods = %d", p), "give at most run.periods, or 0")
+	}
 }

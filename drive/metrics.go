@@ -64,6 +64,7 @@ func FindRings(m *MeanField, psi, omega []float64, tiny float64) []Ring {
 		}
 	}
 	var rings []Ring
+	var nodes [][2]int
 	for j := 1; j < nr-1; j++ {
 		for k := 1; k < nz-1; k++ {
 			if bad(k, j) {
@@ -104,16 +105,32 @@ func FindRings(m *MeanField, psi, omega []float64, tiny float64) []Ring {
 			}
 			r := Ring{Z: float64(k) + 0.5 + dz, R: float64(j) + 0.5 + dr,
 				Psi: c + 0.5*(gz*dz+gr*dr)}
-			r.Circulation = regionCirculation(m, psi, omega, k, j)
 			r.Sense = "counter-clockwise"
 			if c < 0 {
 				r.Sense = "clockwise"
 			}
 			rings = append(rings, r)
+			nodes = append(nodes, [2]int{k, j})
 		}
 	}
-	sort.Slice(rings, func(a, b int) bool { return math.Abs(rings[a].Psi) > math.Abs(rings[b].Psi) })
-	return rings
+	// One ring per region of one sign of psi: the strongest extremum in it.
+	order := make([]int, len(rings))
+	for i := range order {
+		order[i] = i
+	}
+	sort.Slice(order, func(a, b int) bool { return math.Abs(rings[order[a]].Psi) > math.Abs(rings[order[b]].Psi) })
+	taken := make([]bool, nz*nr)
+	var out []Ring
+	for _, i := range order {
+		k, j := nodes[i][0], nodes[i][1]
+		if taken[at(k, j)] {
+			continue
+		}
+		r := rings[i]
+		r.Circulation = regionCirculation(m, psi, omega, k, j, taken)
+		out = append(out, r)
+	}
+	return out
 }
 
 // regionCirculation integrates omega over the connected region of fluid
@@ -126,7 +143,8 @@ func FindRings(m *MeanField, psi, omega []float64, tiny float64) []Ring {
 // Hill's vortex, whose vorticity jumps to zero at its edge, that is within
 // 0.05% at 20 cells per radius (the test); where the neighbouring flow has
 // vorticity of its own, the halo adds one node's width of it.
-func regionCirculation(m *MeanField, psi, omega []float64, k0, j0 int) float64 {
+// The region's nodes are marked in taken.
+func regionCirculation(m *MeanField, psi, omega []float64, k0, j0 int, taken []bool) float64 {
 	nz, nr := m.Nz, m.Nr
 	at := func(k, j int) int { return j*nz + k }
 	sign := math.Copysign(1, psi[at(k0, j0)])
@@ -161,6 +179,9 @@ func regionCirculation(m *MeanField, psi, omega []float64, k0, j0 int) float64 {
 		if h && !seen[i] {
 			total += omega[i]
 		}
+	}
+	for i, v := range seen {
+		taken[i] = taken[i] || v
 	}
 	return total
 }

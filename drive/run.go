@@ -41,6 +41,7 @@ type Summary struct {
 	PeriodsAnalysed         int      `json:"periods_analysed,omitempty"`
 	NetDisplacement         *float64 `json:"net_displacement_m,omitempty"`
 
+	Streaming  *StreamingSummary    `json:"streaming,omitempty"`
 	Groups     []cases.SphereGroups `json:"groups,omitempty"`
 	Model      *ModelResult         `json:"model,omitempty"`
 	Comparison []Comparison         `json:"model_comparison,omitempty"`
@@ -139,6 +140,10 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 	}
 	var tracker *periodTracker
 	var periods *output.Series
+	var fields *fieldRecorder
+	if l.StepsPerPeriod > 0 {
+		fields = newFieldRecorder(sim, opt.Out)
+	}
 	if sim.sw != nil && l.StepsPerPeriod > 0 {
 		tracker = newPeriodTracker(sim)
 		periods, err = output.CreateSeries(filepath.Join(opt.Out, "periods.csv"), tracker.columns())
@@ -201,6 +206,9 @@ loop:
 			sum.Failure = err.Error()
 			break
 		}
+		if fields != nil {
+			fields.step(sim.Step())
+		}
 		if tracker != nil {
 			before := len(tracker.rows)
 			tracker.step()
@@ -239,6 +247,15 @@ loop:
 	sum.MassCorrected = applied
 	if tracker != nil {
 		summarizeSwimmer(sum, sim, tracker)
+	}
+	if fields != nil && sum.Failure == "" && !sum.Interrupted {
+		mf, mask, err := fields.finish()
+		keep(err)
+		if err == nil && sim.sw != nil && fields.mean.samples > 0 {
+			st, err := sim.streamingMetrics(opt.Out, mf, mask, fields.avgStart, fields.periods)
+			keep(err)
+			sum.Streaming = st
+		}
 	}
 	sum.Completed = sum.Failure == "" && !sum.Interrupted
 	keep(series.Close())

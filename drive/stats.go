@@ -35,12 +35,7 @@ func SwimmingSpeed(c []float64, T float64, skip int) Speed {
 		s.Criterion = "fewer than 2 periods: no estimate"
 		return s
 	}
-	start := skip
-	if rem := P - skip; rem >= 4 {
-		start = P - rem/2
-	} else if rem < 2 {
-		start = max(0, P-2)
-	}
+	start := analysisStart(P, skip)
 	d := make([]float64, 0, P-start)
 	for p := start; p < P; p++ {
 		d = append(d, (c[p+1]-c[p])/T)
@@ -81,4 +76,17 @@ func meanSE(x []float64) (mean, se float64) {
 		ss += (v - mean) * (v - mean)
 	}
 	return mean, math.Sqrt(ss/float64(len(x)-1)) / math.Sqrt(float64(len(x)))
+}
+
+// analysisStart is the first period (0-based) of the window over which the
+// swimming speed and the mean fields are taken: the later half of the
+// periods after skip, at least the last 2.
+func analysisStart(P, skip int) int {
+	start := skip
+	if rem := P - skip; rem >= 4 {
+		start = P - rem/2
+	} else if rem < 2 {
+		start = max(0, P-2)
+	}
+	return start
 }

@@ -1,0 +1,67 @@
+package drive
+
+import (
+	"axiswim/lbm"
+	"axiswim/output"
+)
+
+// vtkGrid is the node grid of the lattice in the container frame, metres.
+func (s *Simulation) vtkGrid() output.Grid {
+	l := s.Lattice
+	return output.Grid{Nz: l.Nz, Nr: l.Nr, Z0: -0.5*l.Length + 0.5*l.Dx, R0: 0.5 * l.Dx, Spacing: l.Dx}
+}
+
+// solidMask reports the nodes inside a body now.
+func (s *Simulation) solidMask() []bool {
+	l := s.Lattice
+	m := make([]bool, l.Nz*l.Nr)
+	for j := 0; j < l.Nr; j++ {
+		for k := 0; k < l.Nz; k++ {
+			m[j*l.Nz+k] = s.Fluid.Solid(k, j)
+		}
+	}
+	return m
+}
+
+// vtkFields converts lattice fields (with the nodes of solid marked) to
+// the SI fields of a VTK file: velocity (u_z, u_r, 0) in m/s, pressure
+// relative to the rest state in Pa (in a closed container the modified
+// pressure, without the hydrostatic and frame parts), azimuthal vorticity
+// in 1/s, Stokes streamfunction in m^3/s, and the solid mask (1 inside a
+// body; the fields there are 0).
+func (s *Simulation) vtkFields(f *lbm.Fields, solid []bool) []output.Field {
+	l := s.Lattice
+	n := f.Nz * f.Nr
+	clean := &lbm.Fields{Nz: f.Nz, Nr: f.Nr, Uz: make([]float64, n), Ur: make([]float64, n), Rho: make([]float64, n)}
+	for i := 0; i < n; i++ {
+		if solid[i] {
+			clean.Rho[i] = 1
+			continue
+		}
+		clean.Uz[i], clean.Ur[i], clean.Rho[i] = f.Uz[i], f.Ur[i], f.Rho[i]
+	}
+	vel := make([]float64, 3*n)
+	p := make([]float64, n)
+	mask := make([]float64, n)
+	c := l.Dx / l.Dt
+	for i := 0; i < n; i++ {
+		vel[3*i], vel[3*i+1] = clean.Uz[i]*c, clean.Ur[i]*c
+		p[i] = l.PressureSI(clean.Rho[i])
+		if solid[i] {
+			mask[i] = 1
+		}
+	}
+	om := lbm.Vorticity(clean, s.FrameOnLiquid)
+	psi := lbm.Streamfunction(clean)
+	for i := range om {
+		om[i] /= l.Dt
+		psi[i] *= l.Dx * l.Dx * l.Dx / l.Dt
+	}
+	return []output.Field{
+		{Name: "velocity", Components: 3, Data: vel, RParity: -1},
+		{Name: "pressure", Components: 1, Data: p, RParity: 1},
+		{Name: "vorticity", Components: 1, Data: om, RParity: -1},
+		{Name: "streamfunction", Components: 1, Data: psi, RParity: 1},
+		{Name: "solid", Components: 1, Data: mask, RParity: 1},
+	}
+}

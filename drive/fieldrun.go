@@ -1,0 +1,152 @@
+package drive
+
+import (
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+
+	"axiswim/lbm"
+	"axiswim/output"
+)
+
+// fieldRecorder samples the liquid's fields during a periodic run: the
+// mean (steady streaming) and phase-averaged fields over the averaging
+// window, and instantaneous snapshots at chosen phases of the last
+// periods, written as VTK files with a .pvd collection.
+type fieldRecorder struct {
+	sim       *Simulation
+	dir       string // run directory
+	spp       int    // steps per period
+	periods   int
+	avgStart  int // first period of the averaging window (0-based)
+	snapStart int // first period with snapshots
+	phases    int // snapshots (and phase averages) per period
+	mean      *fieldAverage
+	phase     []*fieldAverage
+	snaps     []output.CollectionEntry
+	err       error
+}
+
+func newFieldRecorder(sim *Simulation, dir string) *fieldRecorder {
+	c, l := sim.Case, sim.Lattice
+	P := l.Steps / l.StepsPerPeriod
+	r := &fieldRecorder{sim: sim, dir: dir, spp: l.StepsPerPeriod, periods: P,
+		phases: c.Output.SnapshotsPerPeriod}
+	r.avgStart = analysisStart(P, rampPeriods(c))
+	if n := c.Output.AveragePeriods; n > 0 {
+		r.avgStart = max(0, P-n)
+	}
+	r.snapStart = max(0, P-c.Output.SnapshotPeriods)
+	r.mean = newFieldAverage(l.Nz, l.Nr)
+	for i := 0; i < r.phases; i++ {
+		r.phase = append(r.phase, newFieldAverage(l.Nz, l.Nr))
+	}
+	return r
+}
+
+// phaseIndex returns which of n evenly spaced phases step s of a period
+// is, or -1.
+func phaseIndex(s, spp, n int) int {
+	if n <= 0 {
+		return -1
+	}
+	for m := 0; m < n; m++ {
+		if int(math.Round(float64(m*spp)/float64(n))) == s {
+			return m
+		}
+	}
+	return -1
+}
+
+// step looks at the state after lattice step n (1-based) and samples it
+// when the schedule asks.
+func (r *fieldRecorder) step(n int64) {
+	if r.err != nil {
+		return
+	}
+	p, s := int(n)/r.spp, int(n)%r.spp // period index and step within it
+	if p >= r.periods {
+		return
+	}
+	inAvg := p >= r.avgStart
+	mi := phaseIndex(s, r.spp, meanSamplesPerPeriod)
+	pi := phaseIndex(s, r.spp, r.phases)
+	snap := p >= r.snapStart && pi >= 0
+	if !(inAvg && (mi >= 0 || pi >= 0)) && !snap {
+		return
+	}
+	r.sim.Observe()
+	f := r.sim.Fields()
+	solid := r.sim.solidMask()
+	if inAvg && mi >= 0 {
+		r.mean.add(f, solid)
+	}
+	if inAvg && pi >= 0 {
+		r.phase[pi].add(f, solid)
+	}
+	if snap && r.sim.Case.Output.VTK {
+		name := fmt.Sprintf("snapshot_p%04d_%02d.vti", p+1, pi)
+		if err := r.writeVTI(name, f, solid); err != nil {
+			r.err = err
+			return
+		}
+		r.snaps = append(r.snaps, output.CollectionEntry{Time: r.sim.Time(), File: name})
+	}
+}
+
+func (r *fieldRecorder) fieldsDir() (string, error) {
+	d := filepath.Join(r.dir, "fields")
+	if err := os.MkdirAll(d, 0o755); err != nil {
+		return "", fmt.Errorf("fields: %w", err)
+	}
+	return d, nil
+}
+
+func (r *fieldRecorder) writeVTI(name string, f *lbm.Fields, solid []bool) error {
+	d, err := r.fieldsDir()
+	if err != nil {
+		return err
+	}
+	return output.WriteVTI(filepath.Join(d, name), r.sim.vtkGrid(), r.sim.vtkFields(f, solid), r.sim.Case.Output.Mirror)
+}
+
+// finish writes the averaged fields and the snapshot collection and
+// returns the mean field for the metrics.
+func (r *fieldRecorder) finish() (*lbm.Fields, []bool, error) {
+	if r.err != nil {
+		return nil, nil, r.err
+	}
+	mf, mask := r.mean.mean()
+	if !r.sim.Case.Output.VTK || r.mean.samples == 0 {
+		return mf, mask, nil
+	}
+	if err := r.writeVTI("mean.vti", mf, mask); err != nil {
+		return nil, nil, err
+	}
+	var phases []output.CollectionEntry
+	T := float64(r.spp) * r.sim.Lattice.Dt
+	for i, a := range r.phase {
+		if a.samples == 0 {
+			continue
+		}
+		f, m := a.mean()
+		name := fmt.Sprintf("phase_%02d.vti", i)
+		if err := r.writeVTI(name, f, m); err != nil {
+			return nil, nil, err
+		}
+		phases = append(phases, output.CollectionEntry{Time: T * float64(i) / float64(len(r.phase)), File: name})
+	}
+	d, _ := r.fieldsDir()
+	if len(phases) > 0 {
+		if err := output.WritePVD(filepath.Join(d, "phases.pvd"), phases); err != nil {
+			return nil, nil, err
+		}
+	}
+	if len(r.snaps) > 0 {
+		if err := output.WritePVD(filepath.Join(d, "snapshots.pvd"), r.snaps); err != nil {
+			return nil, nil, err
+		}
+	}
+	return mf, mask, nil
+}
