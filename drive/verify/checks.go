@@ -31,6 +31,7 @@ func Checks() []Check {
 		{Name: "light-sphere", Run: checkLightSphere},
 		{Name: "model-vs-simulation", Run: checkModel},
 		{Name: "spring-energy", Run: checkEnergy},
+		{Name: "steady-streaming", Run: checkStreaming},
 		{Name: "scallop", Run: checkScallop},
 		{Name: "symmetric-pair", Run: checkSymmetric},
 		{Name: "womersley-fine", Full: true, Run: checkWomersleyFine},
