@@ -9,13 +9,15 @@ import (
 
 	"axiswim/cases"
 	"axiswim/drive"
+	"axiswim/output"
 )
 
 func cmdCheck(args []string, stdout, stderr io.Writer) error {
 	fs := newFlags("check", stderr)
 	threads := fs.Int("threads", 0, "goroutines for the timed sample (0: all cores)")
+	quiet := fs.Bool("quiet", false, "no progress on stderr")
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: axiswim check [-threads N] CASE.toml")
+		fmt.Fprintln(stderr, "usage: axiswim check [-threads N] [-quiet] CASE.toml")
 		fmt.Fprintln(stderr, "Validates the case, prints its groups and lattice, and times a short sample.")
 		fs.PrintDefaults()
 	}
@@ -87,12 +89,15 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 	}
 	n := 0
 	start := time.Now()
+	prog := output.NewProgress(stderr, *quiet, 5, "tenths of a second", "timed sample")
 	for time.Since(start) < 500*time.Millisecond && n < l.Steps {
 		if err := sim.Advance(10); err != nil {
 			return fmt.Errorf("timed sample: %w", err)
 		}
 		n += 10
+		prog.Set(int64(time.Since(start)/(100*time.Millisecond)), fmt.Sprintf("%d steps", n))
 	}
+	prog.Done()
 	per := time.Since(start).Seconds() / float64(n)
 	est := time.Duration(per * float64(l.Steps) * float64(time.Second))
 	fmt.Fprintf(stdout, "  run time        about %s on %d goroutine(s) (%.3g MLUPS over a %d-step sample)\n",

@@ -7,6 +7,7 @@ import (
 	"time"
 
 	"axiswim/drive/verify"
+	"axiswim/output"
 )
 
 // errVerifyFailed marks a verification run with at least one FAIL row.
@@ -16,8 +17,9 @@ func cmdVerify(args []string, stdout, stderr io.Writer) error {
 	fs := newFlags("verify", stderr)
 	full := fs.Bool("full", false, "also run the long convergence studies")
 	threads := fs.Int("threads", 0, "goroutines for the solver (0: all cores)")
+	quiet := fs.Bool("quiet", false, "no progress on stderr")
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: axiswim verify [-full] [-threads N]")
+		fmt.Fprintln(stderr, "usage: axiswim verify [-full] [-threads N] [-quiet]")
 		fs.PrintDefaults()
 	}
 	if err := parseFlags(fs, args); err != nil {
@@ -26,7 +28,17 @@ func cmdVerify(args []string, stdout, stderr io.Writer) error {
 	start := time.Now()
 	header := true
 	fails, total := 0, 0
+	n := 0
+	for _, c := range verify.Checks() {
+		if !c.Full || *full {
+			n++
+		}
+	}
+	prog := output.NewProgress(stderr, *quiet, int64(n), "checks", "verify")
+	done := 0
 	_, err := verify.Run(*full, *threads, func(c verify.Check, rows []verify.Row) {
+		done++
+		prog.Set(int64(done), c.Name)
 		if header {
 			verify.WriteTable(stdout, rows)
 			header = false
@@ -40,6 +52,7 @@ func cmdVerify(args []string, stdout, stderr io.Writer) error {
 			}
 		}
 	})
+	prog.Done()
 	if err != nil {
 		return err
 	}
