@@ -55,9 +55,11 @@ func WriteFileAtomic(path string, data []byte) error {
 	}
 	name := tmp.Name()
 	_, werr := tmp.Write(data)
+	// CreateTemp makes the file private (0600); results are for reading.
+	perr := tmp.Chmod(0o644)
 	serr := tmp.Sync()
 	cerr := tmp.Close()
-	if err := errors.Join(werr, serr, cerr); err != nil {
+	if err := errors.Join(werr, perr, serr, cerr); err != nil {
 		os.Remove(name)
 		return fmt.Errorf("write %s: %w", path, err)
 	}

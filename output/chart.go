@@ -1,0 +1,104 @@
+package output
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"math"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/plotutil"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+	"gonum.org/v1/plot/vg/vgimg"
+)
+
+// Line is one curve of a chart: Y against X, labelled in the legend (no
+// entry when Label is empty), with a marker at each point when Points is
+// set.
+type Line struct {
+	Label  string
+	X, Y   []float64
+	Points bool
+}
+
+// The size of a chart: 16 x 10 cm at 100 dots per inch, 630 x 394 pixels.
+const (
+	ChartWidth  = 16 * vg.Centimeter
+	ChartHeight = 10 * vg.Centimeter
+	ChartDPI    = 100
+)
+
+// WriteChartPNG writes a line chart of lines to path as a PNG, with a
+// title, axis labels (give the units in them: "time (s)") and a legend.
+// Each line gets its own colour (and marker shape). The file is written
+// atomically.
+func WriteChartPNG(path, title, xlabel, ylabel string, lines []Line) error {
+	p, err := chart(title, xlabel, ylabel, lines)
+	if err != nil {
+		return fmt.Errorf("chart %s: %w", path, err)
+	}
+	c := vgimg.NewWith(vgimg.UseWH(ChartWidth, ChartHeight), vgimg.UseDPI(ChartDPI))
+	p.Draw(draw.New(c))
+	var buf bytes.Buffer
+	if _, err := (vgimg.PngCanvas{Canvas: c}).WriteTo(&buf); err != nil {
+		return fmt.Errorf("chart %s: %w", path, err)
+	}
+	return WriteFileAtomic(path, buf.Bytes())
+}
+
+func chart(title, xlabel, ylabel string, lines []Line) (*plot.Plot, error) {
+	if len(lines) == 0 {
+		return nil, errors.New("no lines to draw")
+	}
+	p := plot.New()
+	p.Title.Text = title
+	p.X.Label.Text = xlabel
+	p.Y.Label.Text = ylabel
+	p.Add(plotter.NewGrid())
+	p.Legend.Top = true
+	for i, l := range lines {
+		name := l.Label
+		if name == "" {
+			name = fmt.Sprintf("line %d", i+1)
+		}
+		if len(l.X) != len(l.Y) {
+			return nil, fmt.Errorf("%s has %d x values and %d y values", name, len(l.X), len(l.Y))
+		}
+		if len(l.X) == 0 {
+			return nil, fmt.Errorf("%s has no points", name)
+		}
+		xy := make(plotter.XYs, len(l.X))
+		for k := range xy {
+			x, y := l.X[k], l.Y[k]
+			if math.IsNaN(x) || math.IsInf(x, 0) || math.IsNaN(y) || math.IsInf(y, 0) {
+				return nil, fmt.Errorf("%s: point %d (%g, %g) is not finite", name, k+1, x, y)
+			}
+			xy[k] = plotter.XY{X: x, Y: y}
+		}
+		line, err := plotter.NewLine(xy)
+		if err != nil {
+			return nil, fmt.Errorf("%s: %w", name, err)
+		}
+		line.Color = plotutil.Color(i)
+		line.Width = vg.Points(1.5)
+		p.Add(line)
+		thumbs := []plot.Thumbnailer{line}
+		if l.Points {
+			marks, err := plotter.NewScatter(xy)
+			if err != nil {
+				return nil, fmt.Errorf("%s: %w", name, err)
+			}
+			marks.Color = line.Color
+			marks.Shape = plotutil.Shape(i)
+			marks.Radius = vg.Points(2.5)
+			p.Add(marks)
+			thumbs = append(thumbs, marks)
+		}
+		if l.Label != "" {
+			p.Legend.Add(l.Label, thumbs...)
+		}
+	}
+	return p, nil
+}
