@@ -25,6 +25,7 @@ type fieldRecorder struct {
 	mean      *fieldAverage
 	phase     []*fieldAverage
 	snaps     []output.CollectionEntry
+	frames    []output.FieldPicture // vorticity of the last period's snapshots
 	err       error
 }
 
@@ -85,6 +86,10 @@ func (r *fieldRecorder) step(n int64) {
 	if inAvg && pi >= 0 {
 		r.phase[pi].add(f, solid)
 	}
+	if snap && p == r.periods-1 && r.sim.Case.Output.Pictures {
+		r.frames = append(r.frames, r.sim.vorticityPicture(f, solid,
+			fmt.Sprintf("vorticity at phase %d/%d of period %d (t = %.4g s)", pi, r.phases, p+1, r.sim.Time())))
+	}
 	if snap && r.sim.Case.Output.VTK {
 		name := fmt.Sprintf("snapshot_p%04d_%02d.vti", p+1, pi)
 		if err := r.writeVTI(name, f, solid); err != nil {
@@ -118,6 +123,9 @@ func (r *fieldRecorder) finish() (*lbm.Fields, []bool, error) {
 		return nil, nil, r.err
 	}
 	mf, mask := r.mean.mean()
+	if err := r.writePictures(mf, mask); err != nil {
+		return nil, nil, err
+	}
 	if !r.sim.Case.Output.VTK || r.mean.samples == 0 {
 		return mf, mask, nil
 	}
@@ -149,4 +157,43 @@ func (r *fieldRecorder) finish() (*lbm.Fields, []bool, error) {
 		}
 	}
 	return mf, mask, nil
+}
+
+// writePictures writes the mean vorticity with the mean streamlines and
+// the frames of the last period, all frames on one colour range and one
+// streamline spacing so that they can be played in sequence.
+func (r *fieldRecorder) writePictures(mf *lbm.Fields, mask []bool) error {
+	if !r.sim.Case.Output.Pictures {
+		return nil
+	}
+	d, err := picturesDir(r.dir)
+	if err != nil {
+		return err
+	}
+	if r.mean.samples > 0 {
+		p := r.sim.vorticityPicture(mf, mask, fmt.Sprintf("mean flow (steady streaming) over periods %d-%d: vorticity and streamlines",
+			r.avgStart+1, r.periods))
+		if err := output.WriteFieldPNG(filepath.Join(d, "mean_vorticity.png"), p); err != nil {
+			return err
+		}
+	}
+	if len(r.frames) == 0 {
+		return nil
+	}
+	var rng, step float64
+	for i := range r.frames {
+		rng = math.Max(rng, r.frames[i].ColorRange())
+		step = math.Max(step, r.frames[i].ContourStep())
+	}
+	fd := filepath.Join(d, "frames")
+	if err := os.MkdirAll(fd, 0o755); err != nil {
+		return fmt.Errorf("pictures: %w", err)
+	}
+	for i := range r.frames {
+		r.frames[i].Range, r.frames[i].PsiStep = rng, step
+		if err := output.WriteFieldPNG(filepath.Join(fd, fmt.Sprintf("frame_%02d.png", i)), r.frames[i]); err != nil {
+			return err
+		}
+	}
+	return nil
 }

@@ -167,6 +167,7 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 		}
 	}
 	row := make([]float64, 0, 16)
+	var hist history
 	record := func() Observation {
 		o := sim.Observe()
 		row = append(row[:0], o.Time, o.DriveDisplacement)
@@ -175,10 +176,15 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 			row = append(row, z, v, f)
 		}
 		if sim.sw != nil {
+			ext := 0.0
 			for k := range sim.sw.dyn.Springs {
 				row = append(row, sim.SpringExtension(k))
+				if k == 0 {
+					ext = sim.SpringExtension(0)
+				}
 			}
 			row = append(row, sim.Centroid())
+			hist.add(o.Time, o.DriveDisplacement, sim.Centroid(), ext)
 		}
 		row = append(row, o.MaxSpeed, o.Mach, o.MassDrift)
 		keep(series.Row(row...))
@@ -247,6 +253,9 @@ loop:
 	sum.MassCorrected = applied
 	if tracker != nil {
 		summarizeSwimmer(sum, sim, tracker)
+		if c.Output.Pictures {
+			keep(writeCharts(opt.Out, sim, &hist, tracker))
+		}
 	}
 	if fields != nil && sum.Failure == "" && !sum.Interrupted {
 		mf, mask, err := fields.finish()

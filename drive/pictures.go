@@ -1,0 +1,129 @@
+package drive
+
+import (
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+
+	"axiswim/lbm"
+	"axiswim/output"
+)
+
+// history keeps the few numbers per sample that the charts need.
+type history struct {
+	t, drive, centroid, ext []float64
+}
+
+func (h *history) add(t, drive, centroid, ext float64) {
+	h.t = append(h.t, t)
+	h.drive = append(h.drive, drive)
+	h.centroid = append(h.centroid, centroid)
+	h.ext = append(h.ext, ext)
+}
+
+// picturesDir makes DIR/pictures.
+func picturesDir(dir string) (string, error) {
+	d := filepath.Join(dir, "pictures")
+	if err := os.MkdirAll(d, 0o755); err != nil {
+		return "", fmt.Errorf("pictures: %w", err)
+	}
+	return d, nil
+}
+
+// spheresNow returns the sphere outlines in lattice coordinates.
+func (s *Simulation) spheresNow() []output.Circle {
+	if s.sw == nil {
+		return nil
+	}
+	var c []output.Circle
+	for k := range s.sw.dyn.Z {
+		c = append(c, output.Circle{Z: s.sw.dyn.Z[k], Radius: s.sw.dyn.Radius[k]})
+	}
+	return c
+}
+
+// vorticityPicture returns the picture of a field's vorticity (1/s) with
+// its streamlines, NaN where mask is set.
+func (s *Simulation) vorticityPicture(f *lbm.Fields, mask []bool, title string) output.FieldPicture {
+	l := s.Lattice
+	n := f.Nz * f.Nr
+	clean := &lbm.Fields{Nz: f.Nz, Nr: f.Nr, Uz: make([]float64, n), Ur: make([]float64, n), Rho: make([]float64, n)}
+	for i := 0; i < n; i++ {
+		if !mask[i] {
+			clean.Uz[i], clean.Ur[i] = f.Uz[i], f.Ur[i]
+		}
+	}
+	om := lbm.Vorticity(clean, s.FrameOnLiquid)
+	psi := lbm.Streamfunction(clean)
+	for i := range om {
+		om[i] /= l.Dt
+		psi[i] *= l.Dx * l.Dx * l.Dx / l.Dt
+		if mask[i] {
+			om[i] = math.NaN()
+		}
+	}
+	return output.FieldPicture{Nz: f.Nz, Nr: f.Nr, Field: om, Odd: true, Diverging: true,
+		Psi: psi, Spheres: s.spheresNow(), Title: title, Label: "vorticity (1/s)"}
+}
+
+// writeCharts draws the swimmer's charts: the centroid against time with
+// the stroboscopic points, the running mean speed against period, and the
+// spring extension against the drive over the last periods.
+func writeCharts(dir string, sim *Simulation, h *history, tr *periodTracker) error {
+	d, err := picturesDir(dir)
+	if err != nil {
+		return err
+	}
+	T := float64(tr.steps) * sim.Lattice.Dt
+	mm := func(x []float64) []float64 {
+		y := make([]float64, len(x))
+		for i, v := range x {
+			y[i] = v * 1e3
+		}
+		return y
+	}
+	var st, sc []float64
+	for p, c := range tr.Centroids {
+		st = append(st, float64(p)*T)
+		sc = append(sc, c*1e3)
+	}
+	if err := output.WriteChartPNG(filepath.Join(d, "centroid.png"), "centroid of the spheres (container frame)",
+		"time (s)", "centroid (mm)", []output.Line{
+			{Label: "centroid", X: h.t, Y: mm(h.centroid)},
+			{Label: "once per period (stroboscopic)", X: st, Y: sc, Points: true},
+		}); err != nil {
+		return err
+	}
+	var pp, run, per []float64
+	skip := rampPeriods(sim.Case)
+	for p := 3; p < len(tr.Centroids); p++ {
+		sp := SwimmingSpeed(tr.Centroids[:p+1], T, skip)
+		pp = append(pp, float64(p))
+		run = append(run, sp.Mean*1e6)
+		per = append(per, (tr.Centroids[p]-tr.Centroids[p-1])/T*1e6)
+	}
+	if len(pp) > 0 {
+		if err := output.WriteChartPNG(filepath.Join(d, "speed.png"), "mean swimming speed as the run goes on",
+			"period", "speed (um/s)", []output.Line{
+				{Label: "estimate from the periods so far", X: pp, Y: run},
+				{Label: "displacement of each period / T", X: pp, Y: per, Points: true},
+			}); err != nil {
+			return err
+		}
+	}
+	if len(sim.sw.dyn.Springs) > 0 && len(h.t) > 0 {
+		from := 0
+		for from < len(h.t) && h.t[from] < h.t[len(h.t)-1]-3*T {
+			from++
+		}
+		if err := output.WriteChartPNG(filepath.Join(d, "spring.png"), "spring 1 extension and the drive, last periods",
+			"time (s)", "displacement (mm)", []output.Line{
+				{Label: "drive displacement X(t)", X: h.t[from:], Y: mm(h.drive[from:])},
+				{Label: "spring 1 extension", X: h.t[from:], Y: mm(h.ext[from:])},
+			}); err != nil {
+			return err
+		}
+	}
+	return nil
+}
