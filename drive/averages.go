@@ -2,10 +2,11 @@ package drive
 
 import "axiswim/lbm"
 
-// fieldAverage accumulates the mean of the liquid's fields over samples
-// taken on the fly (the Eulerian mean at fixed points of the container
-// frame), never storing the samples. A node that a body covers in any
-// sample has no Eulerian mean there and is marked solid.
+// fieldAverage accumulates the mean of the fields over samples taken on
+// the fly (the Eulerian mean at fixed points of the container frame),
+// never storing the samples. A node that a body covers in any sample is
+// marked covered: the liquid has no Eulerian mean there, and pictures and
+// metrics leave it out.
 type fieldAverage struct {
 	nz, nr         int
 	uz, ur, rho    []float64
@@ -19,11 +20,16 @@ func newFieldAverage(nz, nr int) *fieldAverage {
 		rho: make([]float64, n), covered: make([]bool, n)}
 }
 
-// add accumulates one sample; solid reports the nodes inside a body.
-func (a *fieldAverage) add(f *lbm.Fields, solid []bool) {
+// add accumulates one sample; solid reports the nodes inside a body and
+// body their axial velocity (the body's): the mean then is that of the
+// liquid and the bodies together, so that its streamfunction, integrated
+// across the region the bodies sweep, stays right beyond it.
+func (a *fieldAverage) add(f *lbm.Fields, solid []bool, body []float64) {
 	for i := range a.uz {
 		if solid[i] {
 			a.covered[i] = true
+			a.uz[i] += body[i]
+			a.rho[i]++
 			continue
 		}
 		a.uz[i] += f.Uz[i]
@@ -42,10 +48,6 @@ func (a *fieldAverage) mean() (*lbm.Fields, []bool) {
 	}
 	s := 1 / float64(a.samples)
 	for i := 0; i < n; i++ {
-		if a.covered[i] {
-			f.Rho[i] = 1
-			continue
-		}
 		f.Uz[i], f.Ur[i], f.Rho[i] = a.uz[i]*s, a.ur[i]*s, a.rho[i]*s
 	}
 	return f, a.covered

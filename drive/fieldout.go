@@ -11,6 +11,27 @@ func (s *Simulation) vtkGrid() output.Grid {
 	return output.Grid{Nz: l.Nz, Nr: l.Nr, Z0: -0.5*l.Length + 0.5*l.Dx, R0: 0.5 * l.Dx, Spacing: l.Dx}
 }
 
+// bodyVelocity returns, for every node, the axial velocity (lattice units)
+// of the body that covers it, 0 for fluid nodes.
+func (s *Simulation) bodyVelocity(solid []bool) []float64 {
+	l := s.Lattice
+	v := make([]float64, l.Nz*l.Nr)
+	if s.sw == nil {
+		return v
+	}
+	d := s.sw.dyn
+	dom := s.sw.bodies.Domain
+	for k, b := range s.sw.bodies.List {
+		vk := 0.5 * (d.V[k] + d.VPrev[k])
+		for _, n := range dom.Nodes(b.Shape) {
+			if i := n.J*l.Nz + n.K; solid[i] {
+				v[i] = vk
+			}
+		}
+	}
+	return v
+}
+
 // solidMask reports the nodes inside a body now.
 func (s *Simulation) solidMask() []bool {
 	l := s.Lattice
@@ -28,14 +49,15 @@ func (s *Simulation) solidMask() []bool {
 // relative to the rest state in Pa (in a closed container the modified
 // pressure, without the hydrostatic and frame parts), azimuthal vorticity
 // in 1/s, Stokes streamfunction in m^3/s, and the solid mask (1 inside a
-// body; the fields there are 0).
+// body, whose velocity there is the body's).
 func (s *Simulation) vtkFields(f *lbm.Fields, solid []bool) []output.Field {
 	l := s.Lattice
 	n := f.Nz * f.Nr
 	clean := &lbm.Fields{Nz: f.Nz, Nr: f.Nr, Uz: make([]float64, n), Ur: make([]float64, n), Rho: make([]float64, n)}
+	body := s.bodyVelocity(solid)
 	for i := 0; i < n; i++ {
 		if solid[i] {
-			clean.Rho[i] = 1
+			clean.Uz[i], clean.Rho[i] = body[i], 1 // rigid motion inside a body
 			continue
 		}
 		clean.Uz[i], clean.Ur[i], clean.Rho[i] = f.Uz[i], f.Ur[i], f.Rho[i]

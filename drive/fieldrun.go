@@ -80,14 +80,15 @@ func (r *fieldRecorder) step(n int64) {
 	r.sim.Observe()
 	f := r.sim.Fields()
 	solid := r.sim.solidMask()
+	body := r.sim.bodyVelocity(solid)
 	if inAvg && mi >= 0 {
-		r.mean.add(f, solid)
+		r.mean.add(f, solid, body)
 	}
 	if inAvg && pi >= 0 {
-		r.phase[pi].add(f, solid)
+		r.phase[pi].add(f, solid, body)
 	}
 	if snap && p == r.periods-1 && r.sim.Case.Output.Pictures {
-		r.frames = append(r.frames, r.sim.vorticityPicture(f, solid,
+		r.frames = append(r.frames, r.sim.vorticityPicture(f, solid, body,
 			fmt.Sprintf("vorticity at phase %d/%d of period %d (t = %.4g s)", pi, r.phases, p+1, r.sim.Time())))
 	}
 	if snap && r.sim.Case.Output.VTK {
@@ -171,7 +172,7 @@ func (r *fieldRecorder) writePictures(mf *lbm.Fields, mask []bool) error {
 		return err
 	}
 	if r.mean.samples > 0 {
-		p := r.sim.vorticityPicture(mf, mask, fmt.Sprintf("mean flow (steady streaming) over periods %d-%d: vorticity and streamlines",
+		p := r.sim.vorticityPicture(mf, mask, nil, fmt.Sprintf("mean flow (steady streaming) over periods %d-%d: vorticity and streamlines",
 			r.avgStart+1, r.periods))
 		if err := output.WriteFieldPNG(filepath.Join(d, "mean_vorticity.png"), p); err != nil {
 			return err

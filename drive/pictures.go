@@ -44,14 +44,18 @@ func (s *Simulation) spheresNow() []output.Circle {
 }
 
 // vorticityPicture returns the picture of a field's vorticity (1/s) with
-// its streamlines, NaN where mask is set.
-func (s *Simulation) vorticityPicture(f *lbm.Fields, mask []bool, title string) output.FieldPicture {
+// its streamlines, NaN where mask is set. body, when not nil, gives the
+// axial velocity of the masked nodes (the bodies'), so that the
+// streamfunction integrates across them.
+func (s *Simulation) vorticityPicture(f *lbm.Fields, mask []bool, body []float64, title string) output.FieldPicture {
 	l := s.Lattice
 	n := f.Nz * f.Nr
 	clean := &lbm.Fields{Nz: f.Nz, Nr: f.Nr, Uz: make([]float64, n), Ur: make([]float64, n), Rho: make([]float64, n)}
-	for i := 0; i < n; i++ {
-		if !mask[i] {
-			clean.Uz[i], clean.Ur[i] = f.Uz[i], f.Ur[i]
+	copy(clean.Uz, f.Uz)
+	copy(clean.Ur, f.Ur)
+	for i := range body {
+		if mask[i] {
+			clean.Uz[i], clean.Ur[i] = body[i], 0
 		}
 	}
 	om := lbm.Vorticity(clean, s.FrameOnLiquid)
