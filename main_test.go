@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"encoding/json"
+	"image/png"
 	"os"
 	"path/filepath"
 	"strings"
@@ -105,5 +106,61 @@ func TestCasesPrintsDemo(t *testing.T) {
 	}
 	if code, _, _ := run(t, "cases", "no-such-case"); code != exitUsage {
 		t.Errorf("unknown case: exit %d", code)
+	}
+}
+
+// TestRunWritesFieldsAndPictures: a short swimmer run writes its VTK fields
+// (a mean, phase averages and snapshots, with their collections), the
+// metrics, and PNG pictures that decode, have a plausible size and are not
+// blank (pixel variance above 1% of the largest an 8-bit image can have).
+func TestRunWritesFieldsAndPictures(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "run")
+	if code, _, e := run(t, "run", "-quiet", "-out", out, "testdata/small-swimmer.toml"); code != exitOK {
+		t.Fatalf("run: exit %d: %s", code, e)
+	}
+	for _, f := range []string{"fields/mean.vti", "fields/phase_00.vti", "fields/phases.pvd",
+		"fields/snapshot_p0006_07.vti", "fields/snapshots.pvd", "metrics.csv", "periods.csv"} {
+		if _, err := os.Stat(filepath.Join(out, f)); err != nil {
+			t.Errorf("missing %s", f)
+		}
+	}
+	for _, f := range []string{"mean_vorticity.png", "centroid.png", "speed.png", "spring.png", "frames/frame_00.png", "frames/frame_07.png"} {
+		fh, err := os.Open(filepath.Join(out, "pictures", f))
+		if err != nil {
+			t.Errorf("missing picture %s", f)
+			continue
+		}
+		img, err := png.Decode(fh)
+		fh.Close()
+		if err != nil {
+			t.Errorf("%s: %v", f, err)
+			continue
+		}
+		b := img.Bounds()
+		if b.Dx() < 300 || b.Dy() < 200 {
+			t.Errorf("%s: %dx%d pixels, too small", f, b.Dx(), b.Dy())
+		}
+		var s, s2, n float64
+		for y := b.Min.Y; y < b.Max.Y; y += 3 {
+			for x := b.Min.X; x < b.Max.X; x += 3 {
+				r, g, bl, _ := img.At(x, y).RGBA()
+				v := float64(r+g+bl) / 3 / 257
+				s, s2, n = s+v, s2+v*v, n+1
+			}
+		}
+		if variance := s2/n - (s/n)*(s/n); variance < 0.01*127.5*127.5 {
+			t.Errorf("%s looks blank: pixel variance %.1f", f, variance)
+		}
+	}
+	var sum struct {
+		Streaming *struct {
+			Rings []struct {
+				Z float64 `json:"z_m"`
+			} `json:"vortex_rings"`
+		} `json:"streaming"`
+	}
+	data, _ := os.ReadFile(filepath.Join(out, "summary.json"))
+	if err := json.Unmarshal(data, &sum); err != nil || sum.Streaming == nil || len(sum.Streaming.Rings) == 0 {
+		t.Errorf("summary has no streaming rings (%v)", err)
 	}
 }
