@@ -39,8 +39,8 @@ func commands() []command {
 	return []command{
 		{"run", "[-out DIR] [-threads N] [-quiet] [-force] [CASE.toml]",
 			"run a case (with no case, the embedded demo)", cmdRun},
-		{"check", "CASE.toml", "validate a case and show its groups, lattice, memory and run-time estimate", cmdCheck},
-		{"verify", "[-full] [-threads N]", "run the verification cases against analytic and published values", cmdVerify},
+		{"check", "[-threads N] [-quiet] CASE.toml", "validate a case and show its groups, lattice, memory and run-time estimate", cmdCheck},
+		{"verify", "[-full] [-threads N] [-quiet]", "run the verification cases against analytic and published values", cmdVerify},
 		{"cases", "[NAME]", "list the embedded example cases, or print one", cmdCases},
 		{"model", "[-json] CASE.toml", "solve the reduced linear model: sphere and spring amplitudes and phases", cmdModel},
 		{"help", "", "show this help", nil},
