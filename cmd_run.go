@@ -115,6 +115,16 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 	}
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
 	defer stop()
+	go func() {
+		// After the first signal the run finishes its step and flushes its
+		// files; restoring the default handling lets a second signal end the
+		// process at once.
+		<-ctx.Done()
+		stop()
+		if !*quiet {
+			fmt.Fprintln(stderr, "stopping after this step and writing what the run has; a second Ctrl-C ends it at once")
+		}
+	}()
 	sum, err := drive.Run(ctx, c, l, drive.Options{Out: dir, Force: *force, Threads: *threads, Quiet: *quiet, Log: stderr})
 	if sum != nil {
 		printSummary(stdout, dir, sum)
