@@ -83,8 +83,10 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 	threads := fs.Int("threads", 0, "goroutines for the solver (0: all cores)")
 	quiet := fs.Bool("quiet", false, "no progress output")
 	force := fs.Bool("force", false, "replace files in a non-empty -out directory")
+	resume := fs.String("resume", "", "continue the interrupted run in `DIR` from its checkpoint")
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "usage: axiswim run [-out DIR] [-threads N] [-quiet] [-force] [CASE.toml]")
+		fmt.Fprintln(stderr, "       axiswim run -resume DIR [-threads N] [-quiet]")
 		fmt.Fprintln(stderr, "With no case file, runs the embedded demo ('axiswim cases demo' prints it).")
 		fs.PrintDefaults()
 	}
@@ -97,11 +99,17 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 	if *threads < 0 {
 		return fmt.Errorf("%w: -threads %d: give 0 (all cores) or a positive number", errUsage, *threads)
 	}
-	c, l, name, err := loadCase(fs.Arg(0))
+	caseFile, dir := fs.Arg(0), *out
+	if *resume != "" {
+		if caseFile != "" || dir != "" {
+			return fmt.Errorf("%w: -resume DIR takes its case from DIR/case.toml; give no case file and no -out", errUsage)
+		}
+		dir, caseFile = *resume, filepath.Join(*resume, "case.toml")
+	}
+	c, l, name, err := loadCase(caseFile)
 	if err != nil {
 		return err
 	}
-	dir := *out
 	if dir == "" {
 		dir = freshDir(name)
 	}
@@ -125,7 +133,8 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 			fmt.Fprintln(stderr, "stopping after this step and writing what the run has; a second Ctrl-C ends it at once")
 		}
 	}()
-	sum, err := drive.Run(ctx, c, l, drive.Options{Out: dir, Force: *force, Threads: *threads, Quiet: *quiet, Log: stderr})
+	sum, err := drive.Run(ctx, c, l, drive.Options{Out: dir, Force: *force, Threads: *threads, Quiet: *quiet, Log: stderr,
+		Resume: *resume != ""})
 	if sum != nil {
 		printSummary(stdout, dir, sum)
 	}
@@ -133,7 +142,8 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 		return err
 	}
 	if sum.Interrupted {
-		return fmt.Errorf("%w after %d steps; the files written so far are in %s", errStopped, sum.Steps, dir)
+		return fmt.Errorf("%w after %d steps; the files written so far and a checkpoint are in %s: continue with 'axiswim run -resume %s'",
+			errStopped, sum.Steps, dir, dir)
 	}
 	return nil
 }

@@ -12,14 +12,14 @@ import (
 
 // history keeps the few numbers per sample that the charts need.
 type history struct {
-	t, drive, centroid, ext []float64
+	T, Drive, Centroid, Ext []float64
 }
 
 func (h *history) add(t, drive, centroid, ext float64) {
-	h.t = append(h.t, t)
-	h.drive = append(h.drive, drive)
-	h.centroid = append(h.centroid, centroid)
-	h.ext = append(h.ext, ext)
+	h.T = append(h.T, t)
+	h.Drive = append(h.Drive, drive)
+	h.Centroid = append(h.Centroid, centroid)
+	h.Ext = append(h.Ext, ext)
 }
 
 // picturesDir makes DIR/pictures.
@@ -94,7 +94,7 @@ func writeCharts(dir string, sim *Simulation, h *history, tr *periodTracker) err
 	}
 	if err := output.WriteChartPNG(filepath.Join(d, "centroid.png"), "centroid of the spheres (container frame)",
 		"time (s)", "centroid (mm)", []output.Line{
-			{Label: "centroid", X: h.t, Y: mm(h.centroid)},
+			{Label: "centroid", X: h.T, Y: mm(h.Centroid)},
 			{Label: "once per period (stroboscopic)", X: st, Y: sc, Points: true},
 		}); err != nil {
 		return err
@@ -116,15 +116,15 @@ func writeCharts(dir string, sim *Simulation, h *history, tr *periodTracker) err
 			return err
 		}
 	}
-	if len(sim.sw.dyn.Springs) > 0 && len(h.t) > 0 {
+	if len(sim.sw.dyn.Springs) > 0 && len(h.T) > 0 {
 		from := 0
-		for from < len(h.t) && h.t[from] < h.t[len(h.t)-1]-3*T {
+		for from < len(h.T) && h.T[from] < h.T[len(h.T)-1]-3*T {
 			from++
 		}
 		if err := output.WriteChartPNG(filepath.Join(d, "spring.png"), "spring 1 extension and the drive, last periods",
 			"time (s)", "displacement (mm)", []output.Line{
-				{Label: "drive displacement X(t)", X: h.t[from:], Y: mm(h.drive[from:])},
-				{Label: "spring 1 extension", X: h.t[from:], Y: mm(h.ext[from:])},
+				{Label: "drive displacement X(t)", X: h.T[from:], Y: mm(h.Drive[from:])},
+				{Label: "spring 1 extension", X: h.T[from:], Y: mm(h.Ext[from:])},
 			}); err != nil {
 			return err
 		}

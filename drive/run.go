@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"os"
 	"path/filepath"
 	"time"
 
@@ -21,6 +22,15 @@ type Options struct {
 	Threads int       // goroutines (0: all cores)
 	Quiet   bool      // no progress
 	Log     io.Writer // progress and messages (usually os.Stderr)
+
+	// Resume continues the run in Out from its checkpoint.
+	Resume bool
+	// CheckpointEvery is the wall time between checkpoints (0: 10
+	// minutes). A checkpoint is also written when the run is interrupted.
+	CheckpointEvery time.Duration
+	// StopAfter, when positive, stops the run after that many steps as
+	// if it had been interrupted (for tests).
+	StopAfter int64
 }
 
 // Summary is what summary.json records about a run.
@@ -111,21 +121,48 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 	if opt.Log == nil {
 		opt.Log = io.Discard
 	}
-	if err := output.RunDir(opt.Out, opt.Force); err != nil {
-		return nil, err
-	}
 	var buf bytes.Buffer
 	if err := c.WriteTOML(&buf); err != nil {
 		return nil, fmt.Errorf("resolve case: %w", err)
 	}
-	if err := output.WriteFileAtomic(filepath.Join(opt.Out, "case.toml"), buf.Bytes()); err != nil {
-		return nil, err
+	casePath := filepath.Join(opt.Out, "case.toml")
+	ckPath := filepath.Join(opt.Out, CheckpointFile)
+	var resume *runState
+	if opt.Resume {
+		// The case is the one written at the start; its hash must match the
+		// checkpoint's.
+		src, err := os.ReadFile(casePath)
+		if err != nil {
+			return nil, fmt.Errorf("resume: %w", err)
+		}
+		if resume, err = readCheckpoint(ckPath, HashCase(src)); err != nil {
+			return nil, fmt.Errorf("resume %s: %w", opt.Out, err)
+		}
+		buf.Reset()
+		buf.Write(src)
+	} else {
+		if err := output.RunDir(opt.Out, opt.Force); err != nil {
+			return nil, err
+		}
+		if err := output.WriteFileAtomic(casePath, buf.Bytes()); err != nil {
+			return nil, err
+		}
+	}
+	caseHash := HashCase(buf.Bytes())
+	every := opt.CheckpointEvery
+	if every <= 0 {
+		every = 10 * time.Minute
 	}
 	sim, err := New(c, l, opt.Threads)
 	if err != nil {
 		return nil, err
 	}
 	defer sim.Close()
+	if resume != nil {
+		if err := sim.restore(resume); err != nil {
+			return nil, fmt.Errorf("resume %s: %w", opt.Out, err)
+		}
+	}
 
 	sum := &Summary{
 		Title:    c.Run.Title,
@@ -134,7 +171,17 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 		Lattice: LatticeSummary{Nz: l.Nz, Nr: l.Nr, CellSize: l.Dx, TimeStep: l.Dt, Tau: l.Tau,
 			StepsPerPeriod: l.StepsPerPeriod, Bound: l.Bound, Threads: sim.Fluid.Threads()},
 	}
-	series, err := output.CreateSeries(filepath.Join(opt.Out, "series.csv"), seriesColumns(sim))
+	openSeries := func(name string, cols []output.Column, offset int64) (*output.Series, error) {
+		if resume != nil {
+			return output.ReopenSeries(filepath.Join(opt.Out, name), len(cols), offset)
+		}
+		return output.CreateSeries(filepath.Join(opt.Out, name), cols)
+	}
+	var seriesOff, periodsOff int64
+	if resume != nil {
+		seriesOff, periodsOff = resume.SeriesBytes, resume.PeriodsBytes
+	}
+	series, err := openSeries("series.csv", seriesColumns(sim), seriesOff)
 	if err != nil {
 		return nil, err
 	}
@@ -146,7 +193,7 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 	}
 	if sim.sw != nil && l.StepsPerPeriod > 0 {
 		tracker = newPeriodTracker(sim)
-		periods, err = output.CreateSeries(filepath.Join(opt.Out, "periods.csv"), tracker.columns())
+		periods, err = openSeries("periods.csv", tracker.columns(), periodsOff)
 		if err != nil {
 			series.Close()
 			return nil, err
@@ -200,13 +247,52 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 		sp := SwimmingSpeed(tracker.Centroids, float64(l.StepsPerPeriod)*l.Dt, rampPeriods(c))
 		return fmt.Sprintf("mean speed %.3g +- %.2g m/s", sp.Mean, sp.Uncertainty)
 	}
-	record()
 	nextSample := 0
+	if resume == nil {
+		record()
+	} else {
+		nextSample = resume.NextSample
+		hist = resume.Hist
+		sum.MaxMach, sum.MaxMassDrift, sum.FinalMaxSpeed = resume.Summary.MaxMach, resume.Summary.MaxMassDrift, resume.Summary.FinalMaxSpeed
+		if tracker != nil && resume.Tracker != nil {
+			tracker.restore(resume.Tracker)
+		}
+		if fields != nil && resume.Fields != nil {
+			fields.restore(resume.Fields)
+		}
+	}
+	save := func() error {
+		st := &runState{Hist: hist, NextSample: nextSample,
+			Summary: summaryState{MaxMach: sum.MaxMach, MaxMassDrift: sum.MaxMassDrift, FinalMaxSpeed: sum.FinalMaxSpeed}}
+		sim.capture(st)
+		var err error
+		if st.SeriesBytes, err = series.Offset(); err != nil {
+			return err
+		}
+		if periods != nil {
+			if st.PeriodsBytes, err = periods.Offset(); err != nil {
+				return err
+			}
+		}
+		if tracker != nil {
+			st.Tracker = tracker.capture()
+		}
+		if fields != nil {
+			st.Fields = fields.capture()
+		}
+		return writeCheckpoint(ckPath, caseHash, st)
+	}
+	lastSave := time.Now()
 loop:
 	for sim.Step() < int64(l.Steps) {
-		if ctx.Err() != nil {
+		if ctx.Err() != nil || (opt.StopAfter > 0 && sim.Step() >= opt.StopAfter) {
 			sum.Interrupted = true
+			keep(save())
 			break
+		}
+		if time.Since(lastSave) >= every && l.StepsPerPeriod > 0 && sim.Step()%int64(l.StepsPerPeriod) == 0 {
+			keep(save())
+			lastSave = time.Now()
 		}
 		if err := sim.Advance(1); err != nil {
 			sum.Failure = err.Error()

@@ -1,6 +1,9 @@
 package lbm
 
-import "math"
+import (
+	"fmt"
+	"math"
+)
 
 // SetSolid marks node (k, j) as solid (inside a body) or fluid. Solid nodes
 // are skipped by the kernel; their populations are only the values that
@@ -169,4 +172,46 @@ func (s *Solver) ShiftDensity(drho float64) {
 			}
 		}
 	})
+}
+
+// LatticeState is everything a Step reads of the lattice: the
+// post-collision populations (with the halo), the solid flags and the step
+// count. Boundary links are not included: they follow from the bodies.
+type LatticeState struct {
+	Steps int64
+	Pops  [Q][]float64
+	Solid []bool
+}
+
+// Snapshot copies the lattice state.
+func (s *Solver) Snapshot() LatticeState {
+	st := LatticeState{Steps: s.steps, Solid: append([]bool(nil), s.solid...)}
+	for i := range st.Pops {
+		st.Pops[i] = append([]float64(nil), s.a[i]...)
+	}
+	return st
+}
+
+// Restore puts back a state taken by Snapshot from a lattice of the same
+// size, so that the next Step produces the same bits as it would have.
+func (s *Solver) Restore(st LatticeState) error {
+	if len(st.Solid) != len(s.solid) {
+		return fmt.Errorf("lbm: restore: state of %d nodes for a lattice of %d", len(st.Solid), len(s.solid))
+	}
+	for i := range st.Pops {
+		if len(st.Pops[i]) != len(s.a[i]) {
+			return fmt.Errorf("lbm: restore: plane %d has %d values, want %d", i, len(st.Pops[i]), len(s.a[i]))
+		}
+		copy(s.a[i], st.Pops[i])
+	}
+	s.steps = st.Steps
+	for j := 0; j < s.nr; j++ {
+		for k := 0; k < s.nz; k++ {
+			n := s.idx(k, j)
+			if s.solid[n] != st.Solid[n] {
+				s.SetSolid(k, j, st.Solid[n])
+			}
+		}
+	}
+	return nil
 }

@@ -80,3 +80,34 @@ func (s *Series) Close() error {
 	}
 	return s.f.Close()
 }
+
+// Offset flushes the series and returns its length in bytes, for a
+// checkpoint.
+func (s *Series) Offset() (int64, error) {
+	if err := s.Flush(); err != nil {
+		return 0, err
+	}
+	fi, err := s.f.Stat()
+	if err != nil {
+		return 0, fmt.Errorf("series %s: %w", s.path, err)
+	}
+	return fi.Size(), nil
+}
+
+// ReopenSeries opens an existing series to continue it after a
+// checkpoint: rows written after offset are removed, new rows append.
+func ReopenSeries(path string, cols int, offset int64) (*Series, error) {
+	f, err := os.OpenFile(path, os.O_RDWR, 0o644)
+	if err != nil {
+		return nil, fmt.Errorf("series: %w", err)
+	}
+	if err := f.Truncate(offset); err != nil {
+		f.Close()
+		return nil, fmt.Errorf("series %s: %w", path, err)
+	}
+	if _, err := f.Seek(offset, 0); err != nil {
+		f.Close()
+		return nil, fmt.Errorf("series %s: %w", path, err)
+	}
+	return &Series{f: f, w: bufio.NewWriter(f), cols: cols, path: path}, nil
+}
