@@ -12,6 +12,7 @@ import (
 	"path/filepath"
 	"strings"
 	"syscall"
+	"time"
 
 	"axiswim/cases"
 	"axiswim/drive"
@@ -84,6 +85,8 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 	quiet := fs.Bool("quiet", false, "no progress output")
 	force := fs.Bool("force", false, "replace files in a non-empty -out directory")
 	resume := fs.String("resume", "", "continue the interrupted run in `DIR` from its checkpoint")
+	ckMin := fs.Float64("checkpoint-minutes", 10, "wall time between checkpoints")
+	ckPer := fs.Int("checkpoint-periods", 0, "also write a checkpoint every N drive periods (0: only by wall time)")
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "usage: axiswim run [-out DIR] [-threads N] [-quiet] [-force] [CASE.toml]")
 		fmt.Fprintln(stderr, "       axiswim run -resume DIR [-threads N] [-quiet]")
@@ -95,6 +98,9 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 			err = fmt.Errorf("%w: one case file at most, got %q", errUsage, fs.Args())
 		}
 		return err
+	}
+	if *ckMin <= 0 || *ckPer < 0 {
+		return fmt.Errorf("%w: -checkpoint-minutes must be positive and -checkpoint-periods 0 or more", errUsage)
 	}
 	if *threads < 0 {
 		return fmt.Errorf("%w: -threads %d: give 0 (all cores) or a positive number", errUsage, *threads)
@@ -134,7 +140,7 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 		}
 	}()
 	sum, err := drive.Run(ctx, c, l, drive.Options{Out: dir, Force: *force, Threads: *threads, Quiet: *quiet, Log: stderr,
-		Resume: *resume != ""})
+		Resume: *resume != "", CheckpointEvery: time.Duration(*ckMin * float64(time.Minute)), CheckpointPeriods: *ckPer})
 	if sum != nil {
 		printSummary(stdout, dir, sum)
 	}

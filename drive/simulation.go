@@ -114,6 +114,8 @@ type Observation struct {
 	MeanAxialVelocity float64 // m/s, volume average of u_z
 	MassDrift         float64 // relative change of the 3D mass
 	Finite            bool    // no NaN or Inf in the fields
+	MinRho, MaxRho    float64 // lattice density range over the fluid nodes
+	MaxAt             [2]float64 // where the largest speed is (z, r), m
 }
 
 // Observe computes the liquid's observables at the current time.
@@ -124,16 +126,24 @@ func (s *Simulation) Observe() Observation {
 	f := s.fields
 	var umax2, flux, vol float64
 	finite := true
+	minRho, maxRho := math.Inf(1), math.Inf(-1)
+	var at [2]int
 	for j := 0; j < f.Nr; j++ {
 		r := float64(j) + 0.5
 		for k := 0; k < f.Nz; k++ {
+			if s.Fluid.Solid(k, j) {
+				continue
+			}
 			o := f.At(k, j)
 			uz, ur := f.Uz[o], f.Ur[o]
 			u2 := uz*uz + ur*ur
-			if math.IsNaN(u2) || math.IsInf(u2, 0) {
+			if math.IsNaN(u2) || math.IsInf(u2, 0) || math.IsNaN(f.Rho[o]) {
 				finite = false
 			}
-			umax2 = math.Max(umax2, u2)
+			if u2 > umax2 {
+				umax2, at = u2, [2]int{k, j}
+			}
+			minRho, maxRho = math.Min(minRho, f.Rho[o]), math.Max(maxRho, f.Rho[o])
 			flux += r * uz
 			vol += r
 		}
@@ -151,6 +161,9 @@ func (s *Simulation) Observe() Observation {
 		MeanAxialVelocity: flux / vol * c,
 		MassDrift:         s.massDrift(f),
 		Finite:            finite,
+		MinRho:            minRho,
+		MaxRho:            maxRho,
+		MaxAt:             [2]float64{s.physicalZ(float64(at[0]) + 0.5), (float64(at[1]) + 0.5) * l.Dx},
 	}
 }
 
@@ -166,3 +179,30 @@ func (s *Simulation) massDrift(f *lbm.Fields) float64 {
 
 // Fields returns the fields of the last Observe.
 func (s *Simulation) Fields() *lbm.Fields { return s.fields }
+
+// Hard stops of the run-time guards (METHODS.md 10.1): Mach 0.3, and a
+// density departing from the reference by more than 10% (our choice: the
+// weakly compressible scheme's density errors grow as Ma^2, about 9% at
+// Ma 0.3).
+const (
+	guardMach    = 0.3
+	guardDensity = 0.1
+)
+
+// Guard returns a diagnosis when an observation breaks a hard limit: which
+// limit, where, and the remedy; "" when all is well.
+func (o Observation) Guard() string {
+	where := fmt.Sprintf("at t = %.6g s, largest speed at z = %.4g m, r = %.4g m", o.Time, o.MaxAt[0], o.MaxAt[1])
+	switch {
+	case !o.Finite:
+		return "non-finite values (NaN or Inf) in the fields " + where +
+			": the run is unstable; lower grid.tau toward 1 or raise grid.cells_per_radius (a lower grid Reynolds number)"
+	case o.Mach > guardMach:
+		return fmt.Sprintf("Mach number %.3g above %g %s: lower the velocity scale on the lattice "+
+			"(raise grid.cells_per_radius, or let the tool choose the time step by removing grid.tau)", o.Mach, guardMach, where)
+	case o.MaxRho-1 > guardDensity || 1-o.MinRho > guardDensity:
+		return fmt.Sprintf("lattice density range %.4g to %.4g, more than %g%% from the reference, %s: the weakly "+
+			"compressible scheme no longer holds; raise grid.cells_per_radius or lower the time step", o.MinRho, o.MaxRho, 100*guardDensity, where)
+	}
+	return ""
+}

@@ -6,6 +6,7 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"syscall"
 )
 
 // RunDir prepares dir to receive a run's files. A missing directory is
@@ -67,5 +68,20 @@ func WriteFileAtomic(path string, data []byte) error {
 		os.Remove(name)
 		return fmt.Errorf("write %s: %w", path, err)
 	}
+	// Make the rename itself durable: sync the directory.
+	if d, err := os.Open(filepath.Dir(path)); err == nil {
+		d.Sync()
+		d.Close()
+	}
 	return nil
+}
+
+// FreeBytes returns the space available to an unprivileged writer on the
+// file system holding dir.
+func FreeBytes(dir string) (int64, error) {
+	var st syscall.Statfs_t
+	if err := syscall.Statfs(dir, &st); err != nil {
+		return 0, fmt.Errorf("free space of %s: %w", dir, err)
+	}
+	return int64(st.Bavail) * int64(st.Bsize), nil
 }
