@@ -105,16 +105,16 @@ func (s *Simulation) Advance(n int) error {
 
 // Observation is the state of the liquid at one time, in SI units.
 type Observation struct {
-	Time              float64 // s
-	DriveDisplacement float64 // m
-	DriveVelocity     float64 // m/s
-	DriveAcceleration float64 // m/s^2
-	MaxSpeed          float64 // m/s, in the container frame
-	Mach              float64 // max lattice speed / c_s
-	MeanAxialVelocity float64 // m/s, volume average of u_z
-	MassDrift         float64 // relative change of the 3D mass
-	Finite            bool    // no NaN or Inf in the fields
-	MinRho, MaxRho    float64 // lattice density range over the fluid nodes
+	Time              float64    // s
+	DriveDisplacement float64    // m
+	DriveVelocity     float64    // m/s
+	DriveAcceleration float64    // m/s^2
+	MaxSpeed          float64    // m/s, in the container frame
+	Mach              float64    // max lattice speed / c_s
+	MeanAxialVelocity float64    // m/s, volume average of u_z
+	MassDrift         float64    // relative change of the 3D mass
+	Finite            bool       // no NaN or Inf in the fields
+	MinRho, MaxRho    float64    // lattice density range over the fluid nodes
 	MaxAt             [2]float64 // where the largest speed is (z, r), m
 }
 
