@@ -164,3 +164,33 @@ func TestRunWritesFieldsAndPictures(t *testing.T) {
 		t.Errorf("summary has no streaming rings (%v)", err)
 	}
 }
+
+// TestGuardCatchesInstability: a case with tau too close to 1/2 at a high
+// grid Reynolds number is stopped by a guard that names the cause and the
+// remedy, in the message and in summary.json, before any NaN reaches a
+// file.
+func TestGuardCatchesInstability(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "run")
+	code, stdout, e := run(t, "run", "-quiet", "-out", out, "testdata/unstable.toml")
+	if code != exitError {
+		t.Fatalf("exit %d, want %d (a failed run)\n%s", code, exitError, e)
+	}
+	for _, want := range []string{"tau = 0.5003", "grid Reynolds", "raise grid.tau"} {
+		if !strings.Contains(e, want) || !strings.Contains(stdout, want) {
+			t.Errorf("the diagnosis does not say %q:\n%s\n%s", want, e, stdout)
+		}
+	}
+	var sum struct {
+		Failure string `json:"failure"`
+	}
+	data, _ := os.ReadFile(filepath.Join(out, "summary.json"))
+	if err := json.Unmarshal(data, &sum); err != nil || !strings.Contains(sum.Failure, "grid Reynolds") {
+		t.Errorf("summary failure %q (%v)", sum.Failure, err)
+	}
+	for _, f := range []string{"series.csv", "summary.json"} {
+		b, _ := os.ReadFile(filepath.Join(out, f))
+		if strings.Contains(strings.ToLower(string(b)), "nan") {
+			t.Errorf("%s contains NaN", f)
+		}
+	}
+}

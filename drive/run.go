@@ -229,7 +229,7 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 	// it returns the guard's diagnosis, so that no NaN reaches a file.
 	record := func() string {
 		o := sim.Observe()
-		if g := o.Guard(); g != "" {
+		if g := sim.Guard(o); g != "" {
 			return g
 		}
 		row = append(row[:0], o.Time, o.DriveDisplacement)

@@ -191,12 +191,11 @@ const (
 
 // Guard returns a diagnosis when an observation breaks a hard limit: which
 // limit, where, and the remedy; "" when all is well.
-func (o Observation) Guard() string {
+func (s *Simulation) Guard(o Observation) string {
 	where := fmt.Sprintf("at t = %.6g s, largest speed at z = %.4g m, r = %.4g m", o.Time, o.MaxAt[0], o.MaxAt[1])
 	switch {
 	case !o.Finite:
-		return "non-finite values (NaN or Inf) in the fields " + where +
-			": the run is unstable; lower grid.tau toward 1 or raise grid.cells_per_radius (a lower grid Reynolds number)"
+		return "non-finite values (NaN or Inf) in the fields " + where + ": " + s.instabilityRemedy()
 	case o.Mach > guardMach:
 		return fmt.Sprintf("Mach number %.3g above %g %s: lower the velocity scale on the lattice "+
 			"(raise grid.cells_per_radius, or let the tool choose the time step by removing grid.tau)", o.Mach, guardMach, where)
@@ -205,4 +204,16 @@ func (o Observation) Guard() string {
 			"compressible scheme no longer holds; raise grid.cells_per_radius or lower the time step", o.MinRho, o.MaxRho, 100*guardDensity, where)
 	}
 	return ""
+}
+
+// instabilityRemedy names the likely cause of a blow-up and its fix.
+func (s *Simulation) instabilityRemedy() string {
+	l := s.Lattice
+	if l.Tau < 0.51 || l.ReGrid > 10 {
+		return fmt.Sprintf("the lattice is unstable: tau = %.4g is close to 1/2 while the grid Reynolds number is about %.3g "+
+			"(METHODS.md 10.1-10.2); raise grid.tau toward 1 (or remove it and let the tool choose the time step), "+
+			"or raise grid.cells_per_radius", l.Tau, l.ReGrid)
+	}
+	return "the run is unstable; for a sphere lighter than the liquid raise bodies.virtual_mass to 1, " +
+		"otherwise raise grid.cells_per_radius"
 }

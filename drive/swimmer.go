@@ -162,9 +162,8 @@ func (s *Simulation) stepBodies(n int64) error {
 	for k := range sw.bodies.List {
 		v := sw.dyn.V[k]
 		if math.IsNaN(v) || math.Abs(v) >= 0.5 {
-			return fmt.Errorf("sphere %d moves %.3g cells per step at t = %.6g s: the coupling is unstable "+
-				"(for a light sphere raise bodies.virtual_mass to 1; otherwise raise grid.cells_per_radius or lower grid.tau)",
-				k+1, v, t)
+			return fmt.Errorf("sphere %d moves %.3g cells per step at t = %.6g s (the wall CFL limit is 0.5): %s",
+				k+1, v, t, s.instabilityRemedy())
 		}
 		if err := sw.bodies.MoveTo(k, sw.dyn.Z[k], v); err != nil {
 			return fmt.Errorf("t = %.6g s: %w", t, err)
