@@ -28,19 +28,33 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 		return fmt.Errorf("%w: give one case file (see 'axiswim cases' for examples)", errUsage)
 	}
 	c, err := cases.Load(fs.Arg(0))
-	if err != nil {
-		return err
+	var keyErrs cases.KeyErrors
+	if err != nil && !(errors.As(err, &keyErrs) && c != nil) {
+		return err // unreadable: syntax or type error, with its line
 	}
-	if err := c.Validate(); err != nil {
-		var ps cases.Problems
-		if errors.As(err, &ps) {
-			fmt.Fprintf(stdout, "%s: %d problem(s):\n", fs.Arg(0), len(ps))
-			for _, p := range ps {
-				fmt.Fprintf(stdout, "  %s\n", p.Error())
+	// Every problem at once: the keys, then the values.
+	var problems []string
+	named := map[string]bool{}
+	for _, e := range keyErrs {
+		problems = append(problems, e.Error())
+		named[e.Key] = true
+	}
+	var ps cases.Problems
+	if verr := c.Validate(); errors.As(verr, &ps) {
+		for _, p := range ps {
+			if !named[p.Key] {
+				problems = append(problems, p.Error())
 			}
-			return fmt.Errorf("%s is not a valid case", fs.Arg(0))
 		}
-		return err
+	} else if verr != nil {
+		problems = append(problems, verr.Error())
+	}
+	if len(problems) > 0 {
+		fmt.Fprintf(stdout, "%s: %d problem(s):\n", fs.Arg(0), len(problems))
+		for _, p := range problems {
+			fmt.Fprintf(stdout, "  %s\n", p)
+		}
+		return fmt.Errorf("%s is not a valid case", fs.Arg(0))
 	}
 	l, err := cases.Resolve(c)
 	if err != nil {

@@ -41,13 +41,13 @@ func TestCheckTypo(t *testing.T) {
 	if err := os.WriteFile(path, []byte(src), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	code, _, errOut := run(t, "check", path)
+	code, out, errOut := run(t, "check", path)
 	if code == exitOK {
 		t.Fatal("check accepted a misspelt key")
 	}
 	for _, want := range []string{"viscocity", "line 3", "viscosity"} {
-		if !strings.Contains(errOut, want) {
-			t.Errorf("error does not mention %q:\n%s", want, errOut)
+		if !strings.Contains(out+errOut, want) {
+			t.Errorf("check does not mention %q:\n%s%s", want, out, errOut)
 		}
 	}
 }
@@ -191,6 +191,23 @@ func TestGuardCatchesInstability(t *testing.T) {
 		b, _ := os.ReadFile(filepath.Join(out, f))
 		if strings.Contains(strings.ToLower(string(b)), "nan") {
 			t.Errorf("%s contains NaN", f)
+		}
+	}
+}
+
+// TestCheckListsAllProblems: a misspelt key and a bad value are reported
+// together, each with its fix.
+func TestCheckListsAllProblems(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "bad.toml")
+	src := "[fluid]\ndensity = 1000.0\nviscocity = 0.001\n\n[container]\nradius = -0.01\nlength = 0.04\n\n[grid]\ncell_size = 0.001\n\n[run]\nduration = 0.1\n"
+	os.WriteFile(path, []byte(src), 0o644)
+	code, out, _ := run(t, "check", path)
+	if code == exitOK {
+		t.Fatal("check accepted a bad case")
+	}
+	for _, want := range []string{"fluid.viscocity", "did you mean", "container.radius = -0.01", "fix:"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("check output lacks %q:\n%s", want, out)
 		}
 	}
 }

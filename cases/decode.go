@@ -180,6 +180,8 @@ func Load(path string) (*Case, error) {
 // library reports them, with their line, wrapped with name. Unknown keys
 // (including keys that differ from a valid one only in case) and missing
 // required keys are all returned at once as [KeyErrors], each with its line
+// (the case as far as it was read is returned with them, for listing its
+// other problems too)
 // and, for an unknown key, the closest valid key.
 func Parse(name string, src []byte) (*Case, error) {
 	var raw rawCase
@@ -203,11 +205,13 @@ func Parse(name string, src []byte) (*Case, error) {
 			errs = append(errs, e)
 		}
 	}
-	if len(errs) > 0 {
-		return nil, errs
-	}
 	c := raw.toCase()
 	c.FillDefaults()
+	if len(errs) > 0 {
+		// The case as far as it could be read comes back too, so that a
+		// caller can list the other problems at the same time.
+		return c, errs
+	}
 	return c, nil
 }
 
