@@ -4,6 +4,7 @@
 // Usage:
 //
 //	axiswim run [-out DIR] [-threads N] [-quiet] [-force] [CASE.toml]
+//	axiswim run -resume DIR
 //	axiswim check CASE.toml
 //	axiswim verify [-full]
 //	axiswim cases [NAME]
@@ -38,7 +39,7 @@ type command struct {
 func commands() []command {
 	return []command{
 		{"run", "[-out DIR] [-threads N] [-quiet] [-force] [CASE.toml]",
-			"run a case (with no case, the embedded demo)", cmdRun},
+			"run a case (with no case, the embedded demo); -resume DIR continues one", cmdRun},
 		{"check", "[-threads N] [-quiet] CASE.toml", "validate a case and show its groups, lattice, memory and run-time estimate", cmdCheck},
 		{"verify", "[-full] [-threads N] [-quiet]", "run the verification cases against analytic and published values", cmdVerify},
 		{"cases", "[NAME]", "list the embedded example cases, or print one", cmdCases},
