@@ -327,6 +327,9 @@ loop:
 		}
 		if fields != nil {
 			fields.step(sim.Step())
+			if fields.err != nil {
+				keep(fields.err)
+			}
 		}
 		if tracker != nil {
 			before := len(tracker.rows)
