@@ -187,6 +187,10 @@ func Parse(name string, src []byte) (*Case, error) {
 	var raw rawCase
 	md, err := toml.Decode(string(src), &raw)
 	if err != nil {
+		if strings.Contains(err.Error(), "incompatible types") {
+			err = fmt.Errorf("%w; fix: write the value as the key needs it: numbers without quotes "+
+				"(viscosity = 0.001), whole numbers for counts (periods = 20), text in quotes (ends = \"closed\")", err)
+		}
 		if name == "" {
 			return nil, err
 		}

@@ -148,9 +148,12 @@ func (e *encoder) line(format string, args ...any) {
 	}
 }
 
+// comment writes text as comment lines; control characters, which TOML
+// forbids even in comments, are written as \uXXXX escapes.
 func (e *encoder) comment(text string) {
 	for _, l := range strings.Split(text, "\n") {
-		e.line("# %s", l)
+		q := quoteString(l)
+		e.line("# %s", strings.ReplaceAll(q[1:len(q)-1], `\"`, `"`))
 	}
 }
 

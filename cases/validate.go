@@ -214,7 +214,7 @@ func (c *Case) validateSpheres(v *validator) {
 		case !periodic && math.Abs(s.Z)+s.Radius >= L/2:
 			v.add(key+".z", s.Z,
 				fmt.Sprintf("the sphere touches or crosses an end wall (|z| + radius must be < length/2 = %s)", formatValue(L/2)),
-				fmt.Sprintf("keep |z| below %s, or use a longer container", formatValue(L/2-s.Radius)))
+				fmt.Sprintf("keep |z| below %.6g, or use a longer container", L/2-s.Radius))
 		case periodic && 2*s.Radius >= L:
 			v.add(key+".radius", s.Radius,
 				fmt.Sprintf("the sphere overlaps its periodic image (diameter >= container.length = %s)", formatValue(L)),
@@ -273,7 +273,11 @@ func (c *Case) validateSprings(v *validator) {
 		c.pair(v, key+".spheres", "a spring", s.Spheres)
 		v.nonNegative(key+".stiffness", s.Stiffness, "give the stiffness in N/m, e.g. 0.05")
 		v.nonNegative(key+".damping", s.Damping, "give the damping coefficient in N s/m, or 0")
-		if !(s.RestLength > 0) || math.IsInf(s.RestLength, 1) {
+		// A rest length left out defaults to the initial distance; when the
+		// spring names a missing sphere there is none, and the pair error
+		// above says so already.
+		_, _, pairOK := c.springSpheres(s)
+		if pairOK && (!(s.RestLength > 0) || math.IsInf(s.RestLength, 1)) {
 			v.add(key+".rest_length", s.RestLength, "must be positive",
 				"give the centre-to-centre rest length in metres, or leave it out to use the initial distance")
 		}
