@@ -190,8 +190,16 @@ func printSummary(w io.Writer, dir string, sum *drive.Summary) {
 		fmt.Fprintf(w, "  FAILED: %s\n", sum.Failure)
 	}
 	files := "case.toml (the case as resolved), series.csv (time series), summary.json"
-	if sum.MeanVelocity != nil {
-		files = "case.toml (the case as resolved), series.csv (time series), periods.csv (per period), summary.json"
+	for _, f := range []struct{ name, what string }{
+		{"periods.csv", "periods.csv (per period)"},
+		{"metrics.csv", "metrics.csv (vortex rings)"},
+		{"fields", "fields/ (VTK)"},
+		{"pictures", "pictures/ (PNG)"},
+		{"checkpoint.bin", "checkpoint.bin"},
+	} {
+		if _, err := os.Stat(filepath.Join(dir, f.name)); err == nil {
+			files += ", " + f.what
+		}
 	}
 	fmt.Fprintf(w, "  files: %s\n", files)
 }
