@@ -242,9 +242,9 @@ func checkDemoResolution(threads int) ([]Row, error) {
 		sp := drive.SwimmingSpeed(cent, T, int(math.Ceil(2*c.Shaking.RampPeriods)))
 		speeds = append(speeds, sp.Mean)
 	}
+	// One row: the finer speed against the coarser (the reference column
+	// shows the demo's own speed), so every row can fail.
 	return []Row{
-		{Case: "demo", Quantity: fmt.Sprintf("mean speed (m/s), %d cells per radius", cells[0]), Computed: speeds[0],
-			Unit: "info", Tolerance: math.Inf(1), Source: "reported", Pass: true},
 		relRow("demo", fmt.Sprintf("mean speed (m/s), %d vs %d cells", cells[1], cells[0]), speeds[1], speeds[0], 0.10,
 			"resolution independence within 10% (issue 4)"),
 	}, nil
