@@ -1,6 +1,9 @@
 package lbm
 
-import "fmt"
+import (
+	"fmt"
+	"time"
+)
 
 // Solver is a D2Q9 lattice with its populations, boundaries and worker pool.
 // Use New to make one and Close to release its goroutines.
@@ -11,17 +14,18 @@ type Solver struct {
 	a, b   [Q][]float64
 	off    [Q]int // index offset of the upstream node: e_z + e_r*w
 
-	solid  []bool     // per node including halo; halo nodes are not solid
-	segs   [][][2]int // per row: fluid runs [k0, k1)
-	rows   []rowConst // per-row constants of the axisymmetric terms
-	nIter  int        // fixed-point iterations of the half-step moments
-	wp     float64    // even relaxation rate
-	wm     float64    // odd relaxation rate
-	mrt    *mrtRates  // nil unless MRT
-	nu     float64    // lattice kinematic viscosity
-	gz     float64    // uniform body force density, z
-	gr     float64    // uniform body force density, r
-	steps  int64      // steps taken
+	solid  []bool        // per node including halo; halo nodes are not solid
+	segs   [][][2]int    // per row: fluid runs [k0, k1)
+	rows   []rowConst    // per-row constants of the axisymmetric terms
+	nIter  int           // fixed-point iterations of the half-step moments
+	wp     float64       // even relaxation rate
+	wm     float64       // odd relaxation rate
+	mrt    *mrtRates     // nil unless MRT
+	nu     float64       // lattice kinematic viscosity
+	gz     float64       // uniform body force density, z
+	gr     float64       // uniform body force density, r
+	steps  int64         // steps taken
+	kernT  time.Duration // wall time spent in the fused kernel
 	pool   *pool
 	rowSum []float64 // per-row partial sums for deterministic reductions
 	kernel func(lo, hi, w int)
@@ -92,6 +96,12 @@ func (s *Solver) Threads() int { return len(s.pool.slabs) }
 // Steps returns the number of time steps taken.
 func (s *Solver) Steps() int64 { return s.steps }
 
+// KernelTime returns the wall time the steps so far spent in the fused
+// stream-and-collide kernel (the parallel sweep over the fluid nodes), as
+// opposed to the halo, boundary links and everything outside Step. It lets
+// callers measure the share of a step spent outside the kernel.
+func (s *Solver) KernelTime() time.Duration { return s.kernT }
+
 // Viscosity returns the lattice kinematic viscosity.
 func (s *Solver) Viscosity() float64 { return s.nu }
 
@@ -108,7 +118,9 @@ func (s *Solver) idx(k, j int) int { return (j+1)*s.w + k + 1 }
 func (s *Solver) Step() {
 	s.fillHalo(&s.a)
 	s.boundaryPass(true)
+	t0 := time.Now()
 	s.pool.run(s.kernel)
+	s.kernT += time.Since(t0)
 	s.a, s.b = s.b, s.a
 	s.steps++
 }
