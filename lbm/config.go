@@ -31,6 +31,11 @@ type Config struct {
 
 	// Threads is the number of goroutines (0: GOMAXPROCS).
 	Threads int
+
+	// Portable selects the portable Go kernel even where the SIMD kernel
+	// (AVX-512, amd64) is available. Both give the same bits; the SIMD one
+	// is faster. Tests use it to compare the two.
+	Portable bool
 }
 
 func (c *Config) check() error {

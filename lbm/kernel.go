@@ -1,15 +1,17 @@
 package lbm
 
+import "unsafe"
+
 // streamCollideRows is the fused pull stream-and-collide for rows [lo, hi):
 // every fluid node gathers f*_i(x - e_i) from lattice a (its halo already
 // filled by fillHalo), computes its moments, collides, and writes lattice b.
 // Only fluid runs are visited; solid nodes are left alone.
-func (s *Solver) streamCollideRows(lo, hi, _ int) {
-	var t block
+func (s *Solver) streamCollideRows(lo, hi, w int) {
+	t := s.blocks[w]
 	for j := lo; j < hi; j++ {
 		base := s.idx(0, j)
 		for _, seg := range s.segs[j] {
-			s.sweepBlocks(base+seg[0], base+seg[1], &s.rows[j], nil, 0, &t)
+			s.sweepBlocks(base+seg[0], base+seg[1], &s.rows[j], nil, 0, t)
 		}
 	}
 }
@@ -39,6 +41,25 @@ type block struct {
 	uz, ur, rho, r45, base, sb  [blk]float64 // velocities; rho, 9/2 rho and the collision's common terms
 	k                           consts
 	axis, diag                  pairRates // of the axis and the diagonal directions
+
+	// For the SIMD loops (simd_amd64.s): the addresses of the first
+	// streamed population a_q[n0 - off_q] and the first post-collision one
+	// b_q[n0] of the block, set by pointers. They are uintptrs so that a
+	// block holds no pointers and can be cut from a []float64 at a 64-byte
+	// boundary (newBlock); the lattices they point into are kept alive by
+	// the Solver.
+	src, dst [Q]uintptr
+}
+
+// newBlock returns a block whose arrays start on a 64-byte boundary, so
+// that each SIMD load and store of eight float64 stays within one cache
+// line.
+func newBlock() *block {
+	const words = (int(unsafe.Sizeof(block{})) + 7) / 8
+	buf := make([]float64, words+8)
+	p := unsafe.Pointer(&buf[0])
+	skip := (64 - int(uintptr(p)%64)) % 64 / 8
+	return (*block)(unsafe.Pointer(&buf[skip]))
 }
 
 // consts are the constants of the loops, for a row and a force.
@@ -95,10 +116,22 @@ func (s *Solver) sweepBlocks(n0, n1 int, rc *rowConst, obs *Fields, o0 int, t *b
 	for k0 := n0; k0 < n1; k0 += blk {
 		k1 := min(k0+blk, n1)
 		nb := k1 - k0
-		s.gather(k0, k1, axi, t)
+		nv := 0 // nodes [0, nv) of the block go through the SIMD loops
+		if s.simd {
+			s.pointers(k0, nb, t)
+			nv = nb &^ (simdWidth - 1)
+		}
+		if nv > 0 {
+			passes := 0
+			if axi {
+				passes = s.nIter
+			}
+			gatherSIMD(t, nv, passes)
+		}
+		s.gather(k0, k1, nv, axi, t)
 		if axi {
 			for it := 0; it < s.nIter; it++ {
-				t.pass(nb)
+				t.pass(nv, nb)
 			}
 		}
 		switch {
@@ -113,8 +146,11 @@ func (s *Solver) sweepBlocks(n0, n1 int, rc *rowConst, obs *Fields, o0 int, t *b
 			t.velocities(nb)
 			s.collideBlockMRT(k0, k1, t)
 		default:
-			s.rest(k0, k1, t)
-			s.pairs(k0, k1, t)
+			if nv > 0 {
+				collideSIMD(t, nv)
+			}
+			s.rest(k0, k1, nv, t)
+			s.pairs(k0, k1, nv, t)
 		}
 	}
 }
@@ -154,10 +190,22 @@ func (s *Solver) sweepBlocks(n0, n1 int, rc *rowConst, obs *Fields, o0 int, t *b
 // operations instead of 48 and the division 1/rho is no longer on the
 // critical path. u = m / rho at the end.
 
+// pointers sets the SIMD loops' pointers to the first of the n nodes of
+// the block that starts at node n0. Slicing checks the bounds that the
+// loops, in assembly, do not.
+func (s *Solver) pointers(n0, n int, t *block) {
+	for q := range Q {
+		t.src[q] = uintptr(unsafe.Pointer(&s.a[q][n0-s.off[q]:][:n][0]))
+		t.dst[q] = uintptr(unsafe.Pointer(&s.b[q][n0:][:n][0]))
+	}
+}
+
 // gather computes the moments of nodes [n0, n1), at most blk of them, and
 // the first guess of the half-step moments: rho = 1 + drho0, m = j + G/2,
-// F = G, theta = 0; with axi, also what the passes need.
-func (s *Solver) gather(n0, n1 int, axi bool, t *block) {
+// F = G, theta = 0; with axi, also what the passes need. The first nv
+// nodes of the block are left to the SIMD loop (gatherSIMD), which does
+// the same arithmetic and the passes too.
+func (s *Solver) gather(n0, n1, nv int, axi bool, t *block) {
 	a, o := &s.a, &s.off
 	n := min(n1-n0, blk)
 	a0 := a[0][n0-o[0]:][:n]
@@ -170,7 +218,7 @@ func (s *Solver) gather(n0, n1 int, axi bool, t *block) {
 	a7 := a[7][n0-o[7]:][:n]
 	a8 := a[8][n0-o[8]:][:n]
 	k := &t.k
-	for x := range n {
+	for x := nv; x < n; x++ {
 		d1, d3 := a1[x], a3[x]
 		d2, d4 := a2[x], a4[x]
 		d5, d7 := a5[x], a7[x]
@@ -192,13 +240,13 @@ func (s *Solver) gather(n0, n1 int, axi bool, t *block) {
 	}
 }
 
-// pass is one fixed-point pass of the half-step moments over the first n
-// nodes of the block. It ends with 1/rho for the next pass, so that the
+// pass is one fixed-point pass of the half-step moments over nodes
+// [x0, n) of the block. It ends with 1/rho for the next pass, so that the
 // division is done alongside the rest of the pass, not before it.
-func (t *block) pass(n int) {
+func (t *block) pass(x0, n int) {
 	n = min(n, blk)
 	k := &t.k
-	for x := range n {
+	for x := max(x0, 0); x < n; x++ {
 		mz, mr, fz, fr, inv := t.mz[x], t.mr[x], t.fz[x], t.fr[x], t.inv[x]
 		th := k.nr * mr
 		fz = t.gzs[x] - inv*(mr*(k.k1*mz+k.k2*fz)+k.k2*(mz*fr))
@@ -239,14 +287,14 @@ func (t *block) velocities(n int) {
 // last loop of the moments), then the axis and the diagonal pairs (pairs).
 
 // rest is the last loop of the moments of nodes [n0, n1), u = m / rho,
-// fused with the first loop of the collision.
-func (s *Solver) rest(n0, n1 int, t *block) {
+// fused with the first loop of the collision, from the block's node x0 on.
+func (s *Solver) rest(n0, n1, x0 int, t *block) {
 	a, b, o := &s.a, &s.b, &s.off
 	n := min(n1-n0, blk)
 	a0 := a[0][n0-o[0]:][:n]
 	b0 := b[0][n0:][:n]
 	k := &t.k
-	for x := range n {
+	for x := max(x0, 0); x < n; x++ {
 		drho, inv := t.drho[x], t.inv[x]
 		rho := k.one + drho
 		uz, ur := t.mz[x]*inv, t.mr[x]*inv
@@ -261,24 +309,27 @@ func (s *Solver) rest(n0, n1 int, t *block) {
 }
 
 // pairs relaxes the pairs of opposite directions of nodes [n0, n1) with
-// the moments and common terms in t.
-func (s *Solver) pairs(n0, n1 int, t *block) {
+// the moments and common terms in t, from the block's node x0 on.
+func (s *Solver) pairs(n0, n1, x0 int, t *block) {
 	a, b, o := &s.a, &s.b, &s.off
 	n := min(n1-n0, blk)
-	t.axisPairs(n, a[1][n0-o[1]:], a[3][n0-o[3]:], a[2][n0-o[2]:], a[4][n0-o[4]:],
+	if x0 >= n {
+		return
+	}
+	t.axisPairs(x0, n, a[1][n0-o[1]:], a[3][n0-o[3]:], a[2][n0-o[2]:], a[4][n0-o[4]:],
 		b[1][n0:], b[3][n0:], b[2][n0:], b[4][n0:])
-	t.diagonalPairs(n, a[5][n0-o[5]:], a[7][n0-o[7]:], a[6][n0-o[6]:], a[8][n0-o[8]:],
+	t.diagonalPairs(x0, n, a[5][n0-o[5]:], a[7][n0-o[7]:], a[6][n0-o[6]:], a[8][n0-o[8]:],
 		b[5][n0:], b[7][n0:], b[6][n0:], b[8][n0:])
 }
 
 // axisPairs relaxes the pairs (1,3), e = (1,0), and (2,4), e = (0,1), of
-// the first n nodes of the block, from the streamed populations d into b.
-func (t *block) axisPairs(n int, d1, d3, d2, d4, b1, b3, b2, b4 []float64) {
+// nodes [x0, n) of the block, from the streamed populations d into b.
+func (t *block) axisPairs(x0, n int, d1, d3, d2, d4, b1, b3, b2, b4 []float64) {
 	n = min(n, blk)
 	d1, d3, d2, d4 = d1[:n], d3[:n], d2[:n], d4[:n]
 	b1, b3, b2, b4 = b1[:n], b3[:n], b2[:n], b4[:n]
 	r := &t.axis
-	for x := range n {
+	for x := max(x0, 0); x < n; x++ {
 		r45, base, sbase := t.r45[x], t.base[x], t.sb[x]
 		rw6 := r.w6 * t.rho[x] // 2 (3 w_i rho)
 
@@ -297,12 +348,12 @@ func (t *block) axisPairs(n int, d1, d3, d2, d4, b1, b3, b2, b4 []float64) {
 }
 
 // diagonalPairs relaxes the pairs (5,7), e = (1,1), and (6,8), e = (-1,1).
-func (t *block) diagonalPairs(n int, d5, d7, d6, d8, b5, b7, b6, b8 []float64) {
+func (t *block) diagonalPairs(x0, n int, d5, d7, d6, d8, b5, b7, b6, b8 []float64) {
 	n = min(n, blk)
 	d5, d7, d6, d8 = d5[:n], d7[:n], d6[:n], d8[:n]
 	b5, b7, b6, b8 = b5[:n], b7[:n], b6[:n], b8[:n]
 	r := &t.diag
-	for x := range n {
+	for x := max(x0, 0); x < n; x++ {
 		r45, base, sbase := t.r45[x], t.base[x], t.sb[x]
 		rw6 := r.w6 * t.rho[x]
 		uz, ur, fz, fr := t.uz[x], t.ur[x], t.fz[x], t.fr[x]

@@ -26,6 +26,8 @@ type Solver struct {
 	gr     float64       // uniform body force density, r
 	steps  int64         // steps taken
 	kernT  time.Duration // wall time spent in the fused kernel
+	simd   bool          // the block loops run in SIMD (simd_amd64.s)
+	blocks []*block      // the kernel's scratch block of each worker
 	pool   *pool
 	rowSum []float64 // per-row partial sums for deterministic reductions
 	kernel func(lo, hi, w int)
@@ -78,6 +80,11 @@ func New(cfg Config) (*Solver, error) {
 	s.rowSum = make([]float64, cfg.Nr)
 	s.pool = newPool(cfg.Nr, cfg.threads())
 	s.kernel = s.streamCollideRows
+	s.simd = simdAvailable && !cfg.Portable
+	s.blocks = make([]*block, s.Threads())
+	for w := range s.blocks {
+		s.blocks[w] = newBlock()
+	}
 	return s, nil
 }
 
@@ -89,6 +96,15 @@ func (s *Solver) Config() Config { return s.cfg }
 
 // Size returns the number of nodes along z and r.
 func (s *Solver) Size() (nz, nr int) { return s.nz, s.nr }
+
+// Kernel names the kernel the steps run: "avx512" (the SIMD block loops)
+// or "portable" (Go only).
+func (s *Solver) Kernel() string {
+	if s.simd {
+		return "avx512"
+	}
+	return "portable"
+}
 
 // Threads returns the number of goroutines working on each step.
 func (s *Solver) Threads() int { return len(s.pool.slabs) }
