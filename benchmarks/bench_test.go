@@ -11,10 +11,10 @@ import (
 	"time"
 )
 
-// The benchmark grids: 512x256 and 2048x1024 by default; -grids (after
-// -args) or AXISWIM_BENCH_GRIDS may name others, e.g. "all" or
-// "256x128,4096x1024".
-var benchGridsFlag = flag.String("grids", "", `benchmark grids NZxNR, comma-separated, or "all" (default 512x256,2048x1024; env AXISWIM_BENCH_GRIDS)`)
+// The benchmark grids: 256x128, 960x240 and 4096x1024 by default; -grids
+// (after -args) or AXISWIM_BENCH_GRIDS may name others, e.g. "all" or
+// "512x256,2048x1024".
+var benchGridsFlag = flag.String("grids", "", `benchmark grids NZxNR, comma-separated, or "all" (default 256x128,960x240,4096x1024; env AXISWIM_BENCH_GRIDS)`)
 
 func benchGrids(b *testing.B) []grid {
 	s := *benchGridsFlag
@@ -96,7 +96,7 @@ func TestHelpers(t *testing.T) {
 			}
 		}
 	}
-	for _, k := range kernels {
+	for _, k := range append(kernels, portableKernels...) {
 		for _, n := range []int{1, 2} {
 			res, err := measureKernel(k, grid{16, 8}, n, 10*time.Millisecond)
 			if err != nil {
@@ -111,8 +111,8 @@ func TestHelpers(t *testing.T) {
 
 func TestParseGrids(t *testing.T) {
 	for in, want := range map[string]string{
-		"":                  "512x256,2048x1024",
-		"all":               "256x128,512x256,2048x1024,4096x1024",
+		"":                  "256x128,960x240,4096x1024",
+		"all":               "256x128,512x256,960x240,2048x1024,4096x1024",
 		" 256x128, 64x32 ,": "256x128,64x32",
 	} {
 		gs, err := parseGrids(in)

@@ -14,12 +14,20 @@ type kernel struct {
 	name      string
 	collision lbm.Collision
 	axisym    bool
+	portable  bool // the portable Go kernel even where SIMD is available
 }
 
 // kernels are the configurations measured, in table order.
 var kernels = []kernel{
 	{name: "planar BGK", collision: lbm.BGK, axisym: false},
 	{name: "axisymmetric TRT", collision: lbm.TRT, axisym: true},
+}
+
+// portableKernels are the same configurations on the portable Go kernel
+// (the -portable flag adds them to the table).
+var portableKernels = []kernel{
+	{name: "planar BGK, portable", collision: lbm.BGK, axisym: false, portable: true},
+	{name: "axisymmetric TRT, portable", collision: lbm.TRT, axisym: true, portable: true},
 }
 
 const (
@@ -45,11 +53,11 @@ func (g grid) cells() int { return g.nz * g.nr }
 func (g grid) latticeBytes() int { return 2 * lbm.Q * (g.nz + 2) * (g.nr + 2) * 8 }
 
 var (
-	defaultGrids = []grid{{512, 256}, {2048, 1024}}
-	allGrids     = []grid{{256, 128}, {512, 256}, {2048, 1024}, {4096, 1024}}
+	defaultGrids = []grid{{256, 128}, {960, 240}, {4096, 1024}}
+	allGrids     = []grid{{256, 128}, {512, 256}, {960, 240}, {2048, 1024}, {4096, 1024}}
 )
 
-// parseGrids reads a comma-separated list such as "512x256,2048x1024";
+// parseGrids reads a comma-separated list such as "960x240,4096x1024";
 // "" gives the default grids and "all" every known grid.
 func parseGrids(s string) ([]grid, error) {
 	s = strings.TrimSpace(s)
@@ -94,6 +102,7 @@ func newSolver(k kernel, g grid, threads int) (*lbm.Solver, error) {
 		Axisymmetric: k.axisym,
 		PeriodicZ:    true,
 		Threads:      threads,
+		Portable:     k.portable,
 	})
 	if err != nil {
 		return nil, err
@@ -148,4 +157,17 @@ func measureKernel(k kernel, g grid, threads int, dur time.Duration) (kernelResu
 		res.mlups = max(res.mlups, mlups(g.cells(), batch, d))
 	}
 	return res, nil
+}
+
+// kernelName names the kernel lbm chooses on this machine.
+func kernelName() string {
+	s, err := lbm.New(lbm.Config{Nz: 8, Nr: 8, Tau: benchTau, Threads: 1})
+	if err != nil {
+		return "unknown"
+	}
+	defer s.Close()
+	if s.Kernel() == "avx512" {
+		return "avx512 (SIMD, amd64 assembly)"
+	}
+	return "portable (Go)"
 }

@@ -13,7 +13,8 @@ import (
 
 func main() {
 	fs := flag.NewFlagSet("benchmarks", flag.ExitOnError)
-	gridsFlag := fs.String("grids", "512x256,2048x1024", `comma-separated grids NZxNR, or "all"`)
+	gridsFlag := fs.String("grids", "256x128,960x240,4096x1024", `comma-separated grids NZxNR, or "all"`)
+	portable := fs.Bool("portable", false, "also time the portable Go kernel")
 	seconds := fs.Float64("seconds", 2, "seconds of timing per kernel, grid and goroutine count")
 	reps := fs.Int("reps", 10, "triad repetitions (the best is reported)")
 	triadMiB := fs.Int("triad-mib", defaultTriadMiB, "size of each of the three triad arrays, MiB")
@@ -38,6 +39,10 @@ func main() {
 		dur:      time.Duration(*seconds * float64(time.Second)),
 		reps:     *reps,
 		triadLen: *triadMiB << 20 / 8,
+		kernels:  kernels,
+	}
+	if *portable {
+		cfg.kernels = append(cfg.kernels, portableKernels...)
 	}
 	if err := run(os.Stdout, cfg); err != nil {
 		fmt.Fprintln(os.Stderr, "benchmarks:", err)
@@ -50,6 +55,7 @@ type runConfig struct {
 	dur      time.Duration // timing per kernel measurement
 	reps     int           // triad repetitions
 	triadLen int           // elements per triad array
+	kernels  []kernel      // configurations to time
 }
 
 // run measures the triad and every kernel, grid and goroutine count, and
@@ -69,8 +75,8 @@ func run(w io.Writer, cfg runConfig) error {
 		fmt.Fprintf(w, "LLC:    unknown\n")
 	}
 	fmt.Fprintf(w, "Triad:  3 x %s arrays, best of %d passes\n", mib(cfg.triadLen*8), cfg.reps)
-	fmt.Fprintf(w, "Kernel: tau %g, periodic ends, force %g; %d warm-up steps, best batch over %v\n",
-		benchTau, benchForce, warmUpSteps, cfg.dur)
+	fmt.Fprintf(w, "Kernel: %s; tau %g, periodic ends, force %g; %d warm-up steps, best batch over %v\n",
+		kernelName(), benchTau, benchForce, warmUpSteps, cfg.dur)
 	if llc > 0 && cfg.triadLen*8 < 4*llc {
 		fmt.Fprintf(w, "WARNING: each triad array is smaller than 4 x LLC; the triad may measure cache, not DRAM\n")
 	}
@@ -95,7 +101,7 @@ func run(w io.Writer, cfg runConfig) error {
 	}
 	var rows []row
 	for _, g := range cfg.grids {
-		for _, k := range kernels {
+		for _, k := range cfg.kernels {
 			var m1 float64
 			for _, n := range threads {
 				res, err := measureKernel(k, g, n, cfg.dur)

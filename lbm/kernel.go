@@ -113,12 +113,26 @@ func (s *Solver) sweepBlocks(n0, n1 int, rc *rowConst, obs *Fields, o0 int, t *b
 	t.axis = pairRates{nhp: -0.5 * wp, nhm: -0.5 * wm, w2: 2 * w1, w6: 2 * (w1 * 3), cpw: cp * w1, cmw: cm * w1 * 3, c9: 9}
 	t.diag = pairRates{nhp: -0.5 * wp, nhm: -0.5 * wm, w2: 2 * w5, w6: 2 * (w5 * 3), cpw: cp * w5, cmw: cm * w5 * 3, c9: 9}
 	axi := R != 0 && s.nIter > 0
+	if s.single {
+		sweepRun(s, &s.a32, &s.b32, n0, n1, axi, obs, o0, t)
+	} else {
+		sweepRun(s, &s.a, &s.b, n0, n1, axi, obs, o0, t)
+	}
+}
+
+// real is the storage type of the populations: float64, or float32 with
+// Config.Single. All arithmetic is in float64.
+type real interface{ ~float32 | ~float64 }
+
+// sweepRun is the loop over the blocks of sweepBlocks, from lattice a into
+// lattice b.
+func sweepRun[T real](s *Solver, a, b *[Q][]T, n0, n1 int, axi bool, obs *Fields, o0 int, t *block) {
 	for k0 := n0; k0 < n1; k0 += blk {
 		k1 := min(k0+blk, n1)
 		nb := k1 - k0
 		nv := 0 // nodes [0, nv) of the block go through the SIMD loops
 		if s.simd {
-			s.pointers(k0, nb, t)
+			pointers(a, b, &s.off, k0, nb, t)
 			nv = nb &^ (simdWidth - 1)
 		}
 		if nv > 0 {
@@ -126,9 +140,13 @@ func (s *Solver) sweepBlocks(n0, n1 int, rc *rowConst, obs *Fields, o0 int, t *b
 			if axi {
 				passes = s.nIter
 			}
-			gatherSIMD(t, nv, passes)
+			if s.single {
+				gatherSIMD32(t, nv, passes)
+			} else {
+				gatherSIMD(t, nv, passes)
+			}
 		}
-		s.gather(k0, k1, nv, axi, t)
+		gather(a, &s.off, k0, k1, nv, axi, t)
 		if axi {
 			for it := 0; it < s.nIter; it++ {
 				t.pass(nv, nb)
@@ -144,13 +162,17 @@ func (s *Solver) sweepBlocks(n0, n1 int, rc *rowConst, obs *Fields, o0 int, t *b
 			}
 		case s.mrt != nil:
 			t.velocities(nb)
-			s.collideBlockMRT(k0, k1, t)
+			collideBlockMRT(a, b, &s.off, s.mrt, k0, k1, t)
 		default:
 			if nv > 0 {
-				collideSIMD(t, nv)
+				if s.single {
+					collideSIMD32(t, nv)
+				} else {
+					collideSIMD(t, nv)
+				}
 			}
-			s.rest(k0, k1, nv, t)
-			s.pairs(k0, k1, nv, t)
+			rest(a, b, &s.off, k0, k1, nv, t)
+			pairs(a, b, &s.off, k0, k1, nv, t)
 		}
 	}
 }
@@ -193,10 +215,10 @@ func (s *Solver) sweepBlocks(n0, n1 int, rc *rowConst, obs *Fields, o0 int, t *b
 // pointers sets the SIMD loops' pointers to the first of the n nodes of
 // the block that starts at node n0. Slicing checks the bounds that the
 // loops, in assembly, do not.
-func (s *Solver) pointers(n0, n int, t *block) {
+func pointers[T real](a, b *[Q][]T, off *[Q]int, n0, n int, t *block) {
 	for q := range Q {
-		t.src[q] = uintptr(unsafe.Pointer(&s.a[q][n0-s.off[q]:][:n][0]))
-		t.dst[q] = uintptr(unsafe.Pointer(&s.b[q][n0:][:n][0]))
+		t.src[q] = uintptr(unsafe.Pointer(&a[q][n0-off[q]:][:n][0]))
+		t.dst[q] = uintptr(unsafe.Pointer(&b[q][n0:][:n][0]))
 	}
 }
 
@@ -205,8 +227,7 @@ func (s *Solver) pointers(n0, n int, t *block) {
 // F = G, theta = 0; with axi, also what the passes need. The first nv
 // nodes of the block are left to the SIMD loop (gatherSIMD), which does
 // the same arithmetic and the passes too.
-func (s *Solver) gather(n0, n1, nv int, axi bool, t *block) {
-	a, o := &s.a, &s.off
+func gather[T real](a *[Q][]T, o *[Q]int, n0, n1, nv int, axi bool, t *block) {
 	n := min(n1-n0, blk)
 	a0 := a[0][n0-o[0]:][:n]
 	a1 := a[1][n0-o[1]:][:n]
@@ -219,14 +240,14 @@ func (s *Solver) gather(n0, n1, nv int, axi bool, t *block) {
 	a8 := a[8][n0-o[8]:][:n]
 	k := &t.k
 	for x := nv; x < n; x++ {
-		d1, d3 := a1[x], a3[x]
-		d2, d4 := a2[x], a4[x]
-		d5, d7 := a5[x], a7[x]
-		d6, d8 := a6[x], a8[x]
+		d1, d3 := float64(a1[x]), float64(a3[x])
+		d2, d4 := float64(a2[x]), float64(a4[x])
+		d5, d7 := float64(a5[x]), float64(a7[x])
+		d6, d8 := float64(a6[x]), float64(a8[x])
 		s24, s57, s68 := d2+d4, d5+d7, d6+d8
 		m57, m68 := d5-d7, d6-d8
 		s5678 := s57 + s68
-		drho0 := a0[x] + ((d1 + d3) + s24) + s5678
+		drho0 := float64(a0[x]) + ((d1 + d3) + s24) + s5678
 		jz := (d1 - d3) + (m57 - m68)
 		jr := (d2 - d4) + (m57 + m68)
 		t.drho[x], t.inv[x] = drho0, k.one/(k.one+drho0)
@@ -288,8 +309,7 @@ func (t *block) velocities(n int) {
 
 // rest is the last loop of the moments of nodes [n0, n1), u = m / rho,
 // fused with the first loop of the collision, from the block's node x0 on.
-func (s *Solver) rest(n0, n1, x0 int, t *block) {
-	a, b, o := &s.a, &s.b, &s.off
+func rest[T real](a, b *[Q][]T, o *[Q]int, n0, n1, x0 int, t *block) {
 	n := min(n1-n0, blk)
 	a0 := a[0][n0-o[0]:][:n]
 	b0 := b[0][n0:][:n]
@@ -303,28 +323,27 @@ func (s *Solver) rest(n0, n1, x0 int, t *block) {
 		sbase := t.theta[x] - k.c3*(uz*t.fz[x]+ur*t.fr[x])
 		t.uz[x], t.ur[x] = uz, ur
 		t.rho[x], t.r45[x], t.base[x], t.sb[x] = rho, k.c45*rho, base, sbase
-		d0 := a0[x]
-		b0[x] = d0 - k.wp*(d0-k.w0*base) + k.cpw0*sbase
+		d0 := float64(a0[x])
+		b0[x] = T(d0 - k.wp*(d0-k.w0*base) + k.cpw0*sbase)
 	}
 }
 
 // pairs relaxes the pairs of opposite directions of nodes [n0, n1) with
 // the moments and common terms in t, from the block's node x0 on.
-func (s *Solver) pairs(n0, n1, x0 int, t *block) {
-	a, b, o := &s.a, &s.b, &s.off
+func pairs[T real](a, b *[Q][]T, o *[Q]int, n0, n1, x0 int, t *block) {
 	n := min(n1-n0, blk)
 	if x0 >= n {
 		return
 	}
-	t.axisPairs(x0, n, a[1][n0-o[1]:], a[3][n0-o[3]:], a[2][n0-o[2]:], a[4][n0-o[4]:],
+	axisPairs(t, x0, n, a[1][n0-o[1]:], a[3][n0-o[3]:], a[2][n0-o[2]:], a[4][n0-o[4]:],
 		b[1][n0:], b[3][n0:], b[2][n0:], b[4][n0:])
-	t.diagonalPairs(x0, n, a[5][n0-o[5]:], a[7][n0-o[7]:], a[6][n0-o[6]:], a[8][n0-o[8]:],
+	diagonalPairs(t, x0, n, a[5][n0-o[5]:], a[7][n0-o[7]:], a[6][n0-o[6]:], a[8][n0-o[8]:],
 		b[5][n0:], b[7][n0:], b[6][n0:], b[8][n0:])
 }
 
 // axisPairs relaxes the pairs (1,3), e = (1,0), and (2,4), e = (0,1), of
 // nodes [x0, n) of the block, from the streamed populations d into b.
-func (t *block) axisPairs(x0, n int, d1, d3, d2, d4, b1, b3, b2, b4 []float64) {
+func axisPairs[T real](t *block, x0, n int, d1, d3, d2, d4, b1, b3, b2, b4 []T) {
 	n = min(n, blk)
 	d1, d3, d2, d4 = d1[:n], d3[:n], d2[:n], d4[:n]
 	b1, b3, b2, b4 = b1[:n], b3[:n], b2[:n], b4[:n]
@@ -334,21 +353,21 @@ func (t *block) axisPairs(x0, n int, d1, d3, d2, d4, b1, b3, b2, b4 []float64) {
 		rw6 := r.w6 * t.rho[x] // 2 (3 w_i rho)
 
 		eu, ef := t.uz[x], t.fz[x]
-		di, dj := d1[x], d3[x]
+		di, dj := float64(d1[x]), float64(d3[x])
 		relS := r.nhp*((di+dj)-r.w2*(base+r45*eu*eu)) + r.cpw*(sbase+r.c9*eu*ef)
 		relA := r.nhm*((di-dj)-rw6*eu) + r.cmw*ef
-		b1[x], b3[x] = di+relS+relA, dj+relS-relA
+		b1[x], b3[x] = T(di+relS+relA), T(dj+relS-relA)
 
 		eu, ef = t.ur[x], t.fr[x]
-		di, dj = d2[x], d4[x]
+		di, dj = float64(d2[x]), float64(d4[x])
 		relS = r.nhp*((di+dj)-r.w2*(base+r45*eu*eu)) + r.cpw*(sbase+r.c9*eu*ef)
 		relA = r.nhm*((di-dj)-rw6*eu) + r.cmw*ef
-		b2[x], b4[x] = di+relS+relA, dj+relS-relA
+		b2[x], b4[x] = T(di+relS+relA), T(dj+relS-relA)
 	}
 }
 
 // diagonalPairs relaxes the pairs (5,7), e = (1,1), and (6,8), e = (-1,1).
-func (t *block) diagonalPairs(x0, n int, d5, d7, d6, d8, b5, b7, b6, b8 []float64) {
+func diagonalPairs[T real](t *block, x0, n int, d5, d7, d6, d8, b5, b7, b6, b8 []T) {
 	n = min(n, blk)
 	d5, d7, d6, d8 = d5[:n], d7[:n], d6[:n], d8[:n]
 	b5, b7, b6, b8 = b5[:n], b7[:n], b6[:n], b8[:n]
@@ -359,35 +378,34 @@ func (t *block) diagonalPairs(x0, n int, d5, d7, d6, d8, b5, b7, b6, b8 []float6
 		uz, ur, fz, fr := t.uz[x], t.ur[x], t.fz[x], t.fr[x]
 
 		eu, ef := uz+ur, fz+fr
-		di, dj := d5[x], d7[x]
+		di, dj := float64(d5[x]), float64(d7[x])
 		relS := r.nhp*((di+dj)-r.w2*(base+r45*eu*eu)) + r.cpw*(sbase+r.c9*eu*ef)
 		relA := r.nhm*((di-dj)-rw6*eu) + r.cmw*ef
-		b5[x], b7[x] = di+relS+relA, dj+relS-relA
+		b5[x], b7[x] = T(di+relS+relA), T(dj+relS-relA)
 
 		eu, ef = ur-uz, fr-fz
-		di, dj = d6[x], d8[x]
+		di, dj = float64(d6[x]), float64(d8[x])
 		relS = r.nhp*((di+dj)-r.w2*(base+r45*eu*eu)) + r.cpw*(sbase+r.c9*eu*ef)
 		relA = r.nhm*((di-dj)-rw6*eu) + r.cmw*ef
-		b6[x], b8[x] = di+relS+relA, dj+relS-relA
+		b6[x], b8[x] = T(di+relS+relA), T(dj+relS-relA)
 	}
 }
 
 // collideBlockMRT is collideMRT on nodes [n0, n1), at most blk of them,
 // with the moments in t.
-func (s *Solver) collideBlockMRT(n0, n1 int, t *block) {
-	a, b, o := &s.a, &s.b, &s.off
+func collideBlockMRT[T real](a, b *[Q][]T, o *[Q]int, r *mrtRates, n0, n1 int, t *block) {
 	n1 = min(n1, n0+blk)
 	for n := n0; n < n1; n++ {
 		x := n - n0
 		var d [Q]float64
 		for q := range d {
-			d[q] = a[q][n-o[q]]
+			d[q] = float64(a[q][n-o[q]])
 		}
 		drho := t.drho[x]
 		m := moments{drho: drho, rho: 1 + drho, uz: t.uz[x], ur: t.ur[x], fz: t.fz[x], fr: t.fr[x], theta: t.theta[x]}
-		collideMRT(&d, &m, s.mrt)
+		collideMRT(&d, &m, r)
 		for q := range d {
-			b[q][n] = d[q]
+			b[q][n] = T(d[q])
 		}
 	}
 }

@@ -33,3 +33,13 @@ func gatherSIMD(t *block, n, passes int)
 //
 //go:noescape
 func collideSIMD(t *block, n int)
+
+// gatherSIMD32 is gatherSIMD on float32 populations (Config.Single).
+//
+//go:noescape
+func gatherSIMD32(t *block, n, passes int)
+
+// collideSIMD32 is collideSIMD on float32 populations (Config.Single).
+//
+//go:noescape
+func collideSIMD32(t *block, n int)

@@ -275,3 +275,221 @@ cloop:
 cdone:
 	VZEROUPPER
 	RET
+
+// PAIR32 is PAIR on float32 populations.
+#define PAIR32(R, eu, ef, rw6, pi, pj, qi, qj) \
+	VMULPD eu, Z9, Z16; \
+	VMULPD eu, Z16, Z16; \
+	VADDPD Z16, Z6, Z16; \
+	VMULPD.BCST (R+pairRates_w2)(DI), Z16, Z16; \
+	VCVTPS2PD (pi)(CX*4), Z17; \
+	VCVTPS2PD (pj)(CX*4), Z18; \
+	VADDPD Z18, Z17, Z19; \
+	VSUBPD Z16, Z19, Z19; \
+	VMULPD.BCST (R+pairRates_nhp)(DI), Z19, Z19; \
+	VMULPD.BCST (R+pairRates_c9)(DI), eu, Z20; \
+	VMULPD ef, Z20, Z20; \
+	VADDPD Z20, Z7, Z20; \
+	VMULPD.BCST (R+pairRates_cpw)(DI), Z20, Z20; \
+	VADDPD Z20, Z19, Z19; \
+	VSUBPD Z18, Z17, Z21; \
+	VMULPD eu, rw6, Z22; \
+	VSUBPD Z22, Z21, Z21; \
+	VMULPD.BCST (R+pairRates_nhm)(DI), Z21, Z21; \
+	VMULPD.BCST (R+pairRates_cmw)(DI), ef, Z22; \
+	VADDPD Z22, Z21, Z21; \
+	VADDPD Z19, Z17, Z17; \
+	VADDPD Z21, Z17, Z17; \
+	VCVTPD2PS Z17, Y17; \
+	VMOVUPS Y17, (qi)(CX*4); \
+	VADDPD Z19, Z18, Z18; \
+	VSUBPD Z21, Z18, Z18; \
+	VCVTPD2PS Z18, Y18; \
+	VMOVUPS Y18, (qj)(CX*4)
+
+// func gatherSIMD32(t *block, n int, passes int)
+//
+// gatherSIMD on float32 populations: each is converted to float64 as
+// it is loaded (exactly). gather, then passes times pass (the axisymmetric terms when passes > 0);
+// stores drho, 1/rho, m, F and theta.
+TEXT ·gatherSIMD32(SB), NOSPLIT, $0-24
+	MOVQ t+0(FP), DI
+	MOVQ n+8(FP), DX
+	VBROADCASTSD K(consts_one), Z31
+	VBROADCASTSD K(consts_nr), Z30
+	VBROADCASTSD K(consts_k1), Z29
+	VBROADCASTSD K(consts_k2), Z28
+	VBROADCASTSD K(consts_k3), Z27
+	VBROADCASTSD K(consts_k4), Z26
+	VBROADCASTSD K(consts_k5), Z25
+	VBROADCASTSD K(consts_hoop), Z24
+	VBROADCASTSD K(consts_half), Z23
+	XORQ CX, CX
+
+gloop32:
+	CMPQ CX, DX
+	JGE gdone32
+	SRC(0, AX)
+	SRC(1, BX)
+	SRC(2, SI)
+	SRC(3, R8)
+	SRC(4, R9)
+	SRC(5, R10)
+	SRC(6, R11)
+	SRC(7, R12)
+	SRC(8, R13)
+	VCVTPS2PD (BX)(CX*4), Z12 // d1
+	VCVTPS2PD (R8)(CX*4), Z13 // d3
+	VCVTPS2PD (SI)(CX*4), Z14 // d2
+	VCVTPS2PD (R9)(CX*4), Z15 // d4
+	VCVTPS2PD (R10)(CX*4), Z16 // d5
+	VCVTPS2PD (R12)(CX*4), Z17 // d7
+	VCVTPS2PD (R11)(CX*4), Z18 // d6
+	VCVTPS2PD (R13)(CX*4), Z19 // d8
+	VADDPD Z15, Z14, Z20 // s24
+	VADDPD Z17, Z16, Z21 // s57
+	VADDPD Z19, Z18, Z22 // s68
+	VSUBPD Z17, Z16, Z16 // m57
+	VSUBPD Z19, Z18, Z18 // m68
+	VADDPD Z22, Z21, Z17 // s5678
+	VADDPD Z13, Z12, Z19 // d1 + d3
+	VADDPD Z20, Z19, Z19 // + s24
+	VCVTPS2PD (AX)(CX*4), Z3 // d0
+	VADDPD Z3, Z19, Z19 // d0 + (...)
+	VADDPD Z17, Z19, Z0 // drho0 = (...) + s5678
+	VSUBPD Z13, Z12, Z12 // d1 - d3
+	VSUBPD Z18, Z16, Z13 // m57 - m68
+	VADDPD Z13, Z12, Z1 // j_z
+	VSUBPD Z15, Z14, Z14 // d2 - d4
+	VADDPD Z18, Z16, Z15 // m57 + m68
+	VADDPD Z15, Z14, Z2 // j_r
+	// First guess: rho = 1 + drho0, m = j + G/2, F = G, theta = 0.
+	VADDPD Z0, Z31, Z9
+	VDIVPD Z9, Z31, Z9
+	VMOVAPD Z0, Z11
+	VADDPD.BCST K(consts_hgz), Z1, Z5
+	VADDPD.BCST K(consts_hgr), Z2, Z6
+	VBROADCASTSD K(consts_gz), Z7
+	VBROADCASTSD K(consts_gr), Z8
+	VPXORQ Z10, Z10, Z10
+	MOVQ passes+16(FP), R13
+	TESTQ R13, R13
+	JZ gstore32
+	// The parts that do not change from pass to pass.
+	VSUBPD Z22, Z21, Z12 // s57 - s68
+	VMULPD Z27, Z12, Z12
+	VSUBPD Z12, Z7, Z3 // G_z = g_z - c R Pi_zr
+	VADDPD Z17, Z20, Z12 // s24 + s5678
+	VMULPD.BCST K(consts_third), Z0, Z13
+	VSUBPD Z13, Z12, Z12
+	VMULPD Z27, Z12, Z12
+	VSUBPD Z12, Z8, Z4 // G_r
+
+gpass32:
+	PASS
+	DECQ R13
+	JNZ gpass32
+
+gstore32:
+	VMOVUPD Z11, block_drho(DI)(CX*8)
+	VMOVUPD Z9, block_inv(DI)(CX*8)
+	VMOVUPD Z5, block_mz(DI)(CX*8)
+	VMOVUPD Z6, block_mr(DI)(CX*8)
+	VMOVUPD Z7, block_fz(DI)(CX*8)
+	VMOVUPD Z8, block_fr(DI)(CX*8)
+	VMOVUPD Z10, block_theta(DI)(CX*8)
+	ADDQ $8, CX
+	JMP gloop32
+
+gdone32:
+	VZEROUPPER
+	RET
+
+// func collideSIMD32(t *block, n int)
+//
+// collideSIMD on float32 populations: loaded with a conversion to
+// float64, stored rounded to float32 (round to nearest even, as Go's
+// float32 conversion). rest, then axisPairs and diagonalPairs, from the moments in the block
+// and the streamed populations at block_src into block_dst.
+TEXT ·collideSIMD32(SB), NOSPLIT, $0-16
+	MOVQ t+0(FP), DI
+	MOVQ n+8(FP), DX
+	VBROADCASTSD K(consts_one), Z31
+	VBROADCASTSD K(consts_c15), Z30
+	VBROADCASTSD K(consts_c3), Z29
+	VBROADCASTSD K(consts_c45), Z28
+	VBROADCASTSD K(consts_wp), Z27
+	VBROADCASTSD K(consts_w0), Z26
+	VBROADCASTSD K(consts_cpw0), Z25
+	XORQ CX, CX
+
+cloop32:
+	CMPQ CX, DX
+	JGE cdone32
+	// rest: u = m/rho and the common terms.
+	VMOVUPD block_drho(DI)(CX*8), Z0
+	VMOVUPD block_inv(DI)(CX*8), Z1
+	VADDPD Z0, Z31, Z2 // rho = 1 + drho
+	VMULPD block_mz(DI)(CX*8), Z1, Z3 // u_z
+	VMULPD block_mr(DI)(CX*8), Z1, Z4 // u_r
+	VMULPD Z3, Z3, Z5
+	VMULPD Z4, Z4, Z6
+	VADDPD Z6, Z5, Z5 // u^2
+	VMULPD Z30, Z2, Z6
+	VMULPD Z5, Z6, Z6
+	VSUBPD Z6, Z0, Z6 // base = drho - (3/2 rho) u^2
+	VMOVUPD block_fz(DI)(CX*8), Z10
+	VMOVUPD block_fr(DI)(CX*8), Z11
+	VMULPD Z10, Z3, Z7
+	VMULPD Z11, Z4, Z8
+	VADDPD Z8, Z7, Z7
+	VMULPD Z29, Z7, Z7
+	VMOVUPD block_theta(DI)(CX*8), Z8
+	VSUBPD Z7, Z8, Z7 // sbase = theta - 3 u.F
+	VMULPD Z28, Z2, Z9 // 9/2 rho
+	// f*_0 = (d0 - w+ (d0 - w0 base)) + (1 - w+/2) w0 sbase
+	SRC(0, AX)
+	DST(0, BX)
+	VCVTPS2PD (AX)(CX*4), Z12
+	VMULPD Z26, Z6, Z13
+	VSUBPD Z13, Z12, Z13
+	VMULPD Z27, Z13, Z13
+	VSUBPD Z13, Z12, Z13
+	VMULPD Z25, Z7, Z14
+	VADDPD Z14, Z13, Z13
+	VCVTPD2PS Z13, Y13
+	VMOVUPS Y13, (BX)(CX*4)
+	// Pairs (1,3), e = (1,0), and (2,4), e = (0,1).
+	VMULPD.BCST (block_axis+pairRates_w6)(DI), Z2, Z15
+	SRC(1, AX)
+	SRC(3, BX)
+	DST(1, SI)
+	DST(3, R8)
+	PAIR32(block_axis, Z3, Z10, Z15, AX, BX, SI, R8)
+	SRC(2, AX)
+	SRC(4, BX)
+	DST(2, SI)
+	DST(4, R8)
+	PAIR32(block_axis, Z4, Z11, Z15, AX, BX, SI, R8)
+	// Pairs (5,7), e = (1,1), and (6,8), e = (-1,1).
+	VMULPD.BCST (block_diag+pairRates_w6)(DI), Z2, Z15
+	VADDPD Z4, Z3, Z12 // u_z + u_r
+	VADDPD Z11, Z10, Z13 // F_z + F_r
+	SRC(5, AX)
+	SRC(7, BX)
+	DST(5, SI)
+	DST(7, R8)
+	PAIR32(block_diag, Z12, Z13, Z15, AX, BX, SI, R8)
+	VSUBPD Z3, Z4, Z12 // u_r - u_z
+	VSUBPD Z10, Z11, Z13 // F_r - F_z
+	SRC(6, AX)
+	SRC(8, BX)
+	DST(6, SI)
+	DST(8, R8)
+	PAIR32(block_diag, Z12, Z13, Z15, AX, BX, SI, R8)
+	ADDQ $8, CX
+	JMP cloop32
+
+cdone32:
+	VZEROUPPER
+	RET

@@ -10,8 +10,11 @@ import (
 type Solver struct {
 	cfg    Config
 	nz, nr int
-	w      int // row stride including the halo: nz + 2
-	a, b   [Q][]float64
+	w      int          // row stride including the halo: nz + 2
+	a, b   [Q][]float64 // populations (deviations f - w); nil with Single
+	a32    [Q][]float32 // with Single: the populations in float32
+	b32    [Q][]float32
+	single bool   // float32 storage
 	off    [Q]int // index offset of the upstream node: e_z + e_r*w
 
 	solid  []bool        // per node including halo; halo nodes are not solid
@@ -138,6 +141,7 @@ func (s *Solver) Step() {
 	s.pool.run(s.kernel)
 	s.kernT += time.Since(t0)
 	s.a, s.b = s.b, s.a
+	s.a32, s.b32 = s.b32, s.a32
 	s.steps++
 }
 
