@@ -194,25 +194,37 @@ func (s *Solver) prepare(l Link) (preparedLink, error) {
 // sums run over the links in order, so the force does not depend on the
 // number of goroutines. Fields runs it too, with record false, so that the
 // moments next to a body see the values the next Step will stream.
+//
+// With float32 storage the written value is rounded to float32 first and
+// the force uses the rounded value, the one the fluid sees.
 func (s *Solver) boundaryPass(record bool) {
-	a := &s.a
+	if s.single {
+		boundaryPass(s, &s.a32, record)
+	} else {
+		boundaryPass(s, &s.a, record)
+	}
+}
+
+func boundaryPass[T real](s *Solver, a *[Q][]T, record bool) {
 	for _, b := range s.bodies {
 		var fz float64
 		uw := b.vz
 		for x := range b.links {
 			p := &b.links[x]
-			fi := a[p.dir][p.src]
+			fi := float64(a[p.dir][p.src])
 			v := p.cA*fi + p.cw*p.wallTerm*uw
 			if p.cB != 0 {
-				v += p.cB * a[p.opp][p.src]
+				v += p.cB * float64(a[p.opp][p.src])
 			}
 			if p.n1 >= 0 {
-				v += p.c1 * a[p.d1][p.n1]
+				v += p.c1 * float64(a[p.d1][p.n1])
 			}
 			if p.n2 >= 0 {
-				v += p.c2 * a[p.d2][p.n2]
+				v += p.c2 * float64(a[p.d2][p.n2])
 			}
-			a[p.opp][p.dst] = v
+			vt := T(v)
+			a[p.opp][p.dst] = vt
+			v = float64(vt)
 			fz += p.ring * ((fi+v)*p.ez - (fi-v)*uw)
 		}
 		if record {

@@ -26,7 +26,7 @@ func (s *Solver) Fields(dst *Fields) *Fields {
 	if dst == nil || dst.Nz != s.nz || dst.Nr != s.nr {
 		dst = NewFields(s.nz, s.nr)
 	}
-	s.fillHalo(&s.a)
+	s.fillHalo()
 	s.boundaryPass(false)
 	s.pool.run(func(lo, hi, _ int) {
 		for j := lo; j < hi; j++ {

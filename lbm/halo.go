@@ -14,7 +14,15 @@ package lbm
 // (wall node, direction) pair feeds exactly one fluid node, so it is written
 // as the ghost value f_i(g) = f*_{opp(i)}(g + e_i). Walls override the axis
 // at the corners. The cost is proportional to the perimeter.
-func (s *Solver) fillHalo(f *[Q][]float64) {
+func (s *Solver) fillHalo() {
+	if s.single {
+		fillHalo(s, &s.a32)
+	} else {
+		fillHalo(s, &s.a)
+	}
+}
+
+func fillHalo[T real](s *Solver, f *[Q][]T) {
 	nz, nr := s.nz, s.nr
 	// Axis: only directions entering row 0 from below are read (e_r = +1).
 	for _, i := range [...]int{2, 5, 6} {

@@ -135,7 +135,14 @@ func sweepRun[T real](s *Solver, a, b *[Q][]T, n0, n1 int, axi bool, obs *Fields
 			pointers(a, b, &s.off, k0, nb, t)
 			nv = nb &^ (simdWidth - 1)
 		}
-		if nv > 0 {
+		whole := !axi && obs == nil && s.mrt == nil // planarSIMD does all of it
+		switch {
+		case nv == 0:
+		case whole && s.single:
+			planarSIMD32(t, nv)
+		case whole:
+			planarSIMD(t, nv)
+		default:
 			passes := 0
 			if axi {
 				passes = s.nIter
@@ -164,7 +171,7 @@ func sweepRun[T real](s *Solver, a, b *[Q][]T, n0, n1 int, axi bool, obs *Fields
 			t.velocities(nb)
 			collideBlockMRT(a, b, &s.off, s.mrt, k0, k1, t)
 		default:
-			if nv > 0 {
+			if nv > 0 && !whole {
 				if s.single {
 					collideSIMD32(t, nv)
 				} else {

@@ -91,7 +91,7 @@ func TestKernelMatchesReference(t *testing.T) {
 			}
 			randomState(s, 7)
 			s.SetForce(3e-5, -2e-5)
-			s.fillHalo(&s.a)
+			s.fillHalo()
 			pre := s.State()
 			s.Step()
 			var worst float64

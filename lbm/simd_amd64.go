@@ -43,3 +43,14 @@ func gatherSIMD32(t *block, n, passes int)
 //
 //go:noescape
 func collideSIMD32(t *block, n int)
+
+// planarSIMD is gather and the TRT collision of a planar lattice (no
+// passes) in one loop, the moments kept in registers.
+//
+//go:noescape
+func planarSIMD(t *block, n int)
+
+// planarSIMD32 is planarSIMD on float32 populations (Config.Single).
+//
+//go:noescape
+func planarSIMD32(t *block, n int)

@@ -493,3 +493,257 @@ cloop32:
 cdone32:
 	VZEROUPPER
 	RET
+
+// func planarSIMD(t *block, n int)
+//
+// gatherSIMD without passes followed by collideSIMD, the moments kept in
+// registers: the whole step of a planar lattice (no axisymmetric terms),
+// F = G and theta = 0.
+TEXT ·planarSIMD(SB), NOSPLIT, $0-16
+	MOVQ t+0(FP), DI
+	MOVQ n+8(FP), DX
+	VBROADCASTSD K(consts_one), Z31
+	VBROADCASTSD K(consts_c15), Z30
+	VBROADCASTSD K(consts_c3), Z29
+	VBROADCASTSD K(consts_c45), Z28
+	VBROADCASTSD K(consts_wp), Z27
+	VBROADCASTSD K(consts_w0), Z26
+	VBROADCASTSD K(consts_cpw0), Z25
+	VBROADCASTSD K(consts_gz), Z24
+	VBROADCASTSD K(consts_gr), Z23
+	XORQ CX, CX
+
+ploop:
+	CMPQ CX, DX
+	JGE pdone
+	SRC(0, AX)
+	SRC(1, BX)
+	SRC(2, SI)
+	SRC(3, R8)
+	SRC(4, R9)
+	SRC(5, R10)
+	SRC(6, R11)
+	SRC(7, R12)
+	SRC(8, R13)
+	VMOVUPD (BX)(CX*8), Z12 // d1
+	VMOVUPD (R8)(CX*8), Z13 // d3
+	VMOVUPD (SI)(CX*8), Z14 // d2
+	VMOVUPD (R9)(CX*8), Z15 // d4
+	VMOVUPD (R10)(CX*8), Z16 // d5
+	VMOVUPD (R12)(CX*8), Z17 // d7
+	VMOVUPD (R11)(CX*8), Z18 // d6
+	VMOVUPD (R13)(CX*8), Z19 // d8
+	VADDPD Z15, Z14, Z20 // s24
+	VADDPD Z17, Z16, Z21 // s57
+	VADDPD Z19, Z18, Z3 // s68
+	VSUBPD Z17, Z16, Z16 // m57
+	VSUBPD Z19, Z18, Z18 // m68
+	VADDPD Z3, Z21, Z17 // s5678
+	VADDPD Z13, Z12, Z19 // d1 + d3
+	VADDPD Z20, Z19, Z19 // + s24
+	VADDPD (AX)(CX*8), Z19, Z19 // d0 + (...)
+	VADDPD Z17, Z19, Z0 // drho0 = (...) + s5678
+	VSUBPD Z13, Z12, Z12 // d1 - d3
+	VSUBPD Z18, Z16, Z13 // m57 - m68
+	VADDPD Z13, Z12, Z1 // j_z
+	VSUBPD Z15, Z14, Z14 // d2 - d4
+	VADDPD Z18, Z16, Z15 // m57 + m68
+	VADDPD Z15, Z14, Z2 // j_r
+	// First guess: rho = 1 + drho0, m = j + G/2, F = G, theta = 0.
+	VADDPD Z0, Z31, Z9
+	VDIVPD Z9, Z31, Z9
+	VADDPD.BCST K(consts_hgz), Z1, Z5
+	VADDPD.BCST K(consts_hgr), Z2, Z6
+	// rest: u = m/rho and the common terms.
+	VMOVAPD Z9, Z1
+	VADDPD Z0, Z31, Z2 // rho = 1 + drho
+	VMULPD Z5, Z1, Z3 // u_z
+	VMULPD Z6, Z1, Z4 // u_r
+	VMULPD Z3, Z3, Z5
+	VMULPD Z4, Z4, Z6
+	VADDPD Z6, Z5, Z5 // u^2
+	VMULPD Z30, Z2, Z6
+	VMULPD Z5, Z6, Z6
+	VSUBPD Z6, Z0, Z6 // base = drho - (3/2 rho) u^2
+	VMOVAPD Z24, Z10
+	VMOVAPD Z23, Z11
+	VMULPD Z10, Z3, Z7
+	VMULPD Z11, Z4, Z8
+	VADDPD Z8, Z7, Z7
+	VMULPD Z29, Z7, Z7
+	VPXORQ Z8, Z8, Z8
+	VSUBPD Z7, Z8, Z7 // sbase = theta - 3 u.F
+	VMULPD Z28, Z2, Z9 // 9/2 rho
+	// f*_0 = (d0 - w+ (d0 - w0 base)) + (1 - w+/2) w0 sbase
+	SRC(0, AX)
+	DST(0, BX)
+	VMOVUPD (AX)(CX*8), Z12
+	VMULPD Z26, Z6, Z13
+	VSUBPD Z13, Z12, Z13
+	VMULPD Z27, Z13, Z13
+	VSUBPD Z13, Z12, Z13
+	VMULPD Z25, Z7, Z14
+	VADDPD Z14, Z13, Z13
+	VMOVUPD Z13, (BX)(CX*8)
+	// Pairs (1,3), e = (1,0), and (2,4), e = (0,1).
+	VMULPD.BCST (block_axis+pairRates_w6)(DI), Z2, Z15
+	SRC(1, AX)
+	SRC(3, BX)
+	DST(1, SI)
+	DST(3, R8)
+	PAIR(block_axis, Z3, Z10, Z15, AX, BX, SI, R8)
+	SRC(2, AX)
+	SRC(4, BX)
+	DST(2, SI)
+	DST(4, R8)
+	PAIR(block_axis, Z4, Z11, Z15, AX, BX, SI, R8)
+	// Pairs (5,7), e = (1,1), and (6,8), e = (-1,1).
+	VMULPD.BCST (block_diag+pairRates_w6)(DI), Z2, Z15
+	VADDPD Z4, Z3, Z12 // u_z + u_r
+	VADDPD Z11, Z10, Z13 // F_z + F_r
+	SRC(5, AX)
+	SRC(7, BX)
+	DST(5, SI)
+	DST(7, R8)
+	PAIR(block_diag, Z12, Z13, Z15, AX, BX, SI, R8)
+	VSUBPD Z3, Z4, Z12 // u_r - u_z
+	VSUBPD Z10, Z11, Z13 // F_r - F_z
+	SRC(6, AX)
+	SRC(8, BX)
+	DST(6, SI)
+	DST(8, R8)
+	PAIR(block_diag, Z12, Z13, Z15, AX, BX, SI, R8)
+	ADDQ $8, CX
+	JMP ploop
+
+pdone:
+	VZEROUPPER
+	RET
+
+// func planarSIMD32(t *block, n int)
+//
+// planarSIMD on float32 populations. gatherSIMD without passes followed by collideSIMD, the moments kept in
+// registers: the whole step of a planar lattice (no axisymmetric terms),
+// F = G and theta = 0.
+TEXT ·planarSIMD32(SB), NOSPLIT, $0-16
+	MOVQ t+0(FP), DI
+	MOVQ n+8(FP), DX
+	VBROADCASTSD K(consts_one), Z31
+	VBROADCASTSD K(consts_c15), Z30
+	VBROADCASTSD K(consts_c3), Z29
+	VBROADCASTSD K(consts_c45), Z28
+	VBROADCASTSD K(consts_wp), Z27
+	VBROADCASTSD K(consts_w0), Z26
+	VBROADCASTSD K(consts_cpw0), Z25
+	VBROADCASTSD K(consts_gz), Z24
+	VBROADCASTSD K(consts_gr), Z23
+	XORQ CX, CX
+
+ploop32:
+	CMPQ CX, DX
+	JGE pdone32
+	SRC(0, AX)
+	SRC(1, BX)
+	SRC(2, SI)
+	SRC(3, R8)
+	SRC(4, R9)
+	SRC(5, R10)
+	SRC(6, R11)
+	SRC(7, R12)
+	SRC(8, R13)
+	VCVTPS2PD (BX)(CX*4), Z12 // d1
+	VCVTPS2PD (R8)(CX*4), Z13 // d3
+	VCVTPS2PD (SI)(CX*4), Z14 // d2
+	VCVTPS2PD (R9)(CX*4), Z15 // d4
+	VCVTPS2PD (R10)(CX*4), Z16 // d5
+	VCVTPS2PD (R12)(CX*4), Z17 // d7
+	VCVTPS2PD (R11)(CX*4), Z18 // d6
+	VCVTPS2PD (R13)(CX*4), Z19 // d8
+	VADDPD Z15, Z14, Z20 // s24
+	VADDPD Z17, Z16, Z21 // s57
+	VADDPD Z19, Z18, Z3 // s68
+	VSUBPD Z17, Z16, Z16 // m57
+	VSUBPD Z19, Z18, Z18 // m68
+	VADDPD Z3, Z21, Z17 // s5678
+	VADDPD Z13, Z12, Z19 // d1 + d3
+	VADDPD Z20, Z19, Z19 // + s24
+	VCVTPS2PD (AX)(CX*4), Z4 // d0
+	VADDPD Z4, Z19, Z19 // d0 + (...)
+	VADDPD Z17, Z19, Z0 // drho0 = (...) + s5678
+	VSUBPD Z13, Z12, Z12 // d1 - d3
+	VSUBPD Z18, Z16, Z13 // m57 - m68
+	VADDPD Z13, Z12, Z1 // j_z
+	VSUBPD Z15, Z14, Z14 // d2 - d4
+	VADDPD Z18, Z16, Z15 // m57 + m68
+	VADDPD Z15, Z14, Z2 // j_r
+	// First guess: rho = 1 + drho0, m = j + G/2, F = G, theta = 0.
+	VADDPD Z0, Z31, Z9
+	VDIVPD Z9, Z31, Z9
+	VADDPD.BCST K(consts_hgz), Z1, Z5
+	VADDPD.BCST K(consts_hgr), Z2, Z6
+	// rest: u = m/rho and the common terms.
+	VMOVAPD Z9, Z1
+	VADDPD Z0, Z31, Z2 // rho = 1 + drho
+	VMULPD Z5, Z1, Z3 // u_z
+	VMULPD Z6, Z1, Z4 // u_r
+	VMULPD Z3, Z3, Z5
+	VMULPD Z4, Z4, Z6
+	VADDPD Z6, Z5, Z5 // u^2
+	VMULPD Z30, Z2, Z6
+	VMULPD Z5, Z6, Z6
+	VSUBPD Z6, Z0, Z6 // base = drho - (3/2 rho) u^2
+	VMOVAPD Z24, Z10
+	VMOVAPD Z23, Z11
+	VMULPD Z10, Z3, Z7
+	VMULPD Z11, Z4, Z8
+	VADDPD Z8, Z7, Z7
+	VMULPD Z29, Z7, Z7
+	VPXORQ Z8, Z8, Z8
+	VSUBPD Z7, Z8, Z7 // sbase = theta - 3 u.F
+	VMULPD Z28, Z2, Z9 // 9/2 rho
+	// f*_0 = (d0 - w+ (d0 - w0 base)) + (1 - w+/2) w0 sbase
+	SRC(0, AX)
+	DST(0, BX)
+	VCVTPS2PD (AX)(CX*4), Z12
+	VMULPD Z26, Z6, Z13
+	VSUBPD Z13, Z12, Z13
+	VMULPD Z27, Z13, Z13
+	VSUBPD Z13, Z12, Z13
+	VMULPD Z25, Z7, Z14
+	VADDPD Z14, Z13, Z13
+	VCVTPD2PS Z13, Y13
+	VMOVUPS Y13, (BX)(CX*4)
+	// Pairs (1,3), e = (1,0), and (2,4), e = (0,1).
+	VMULPD.BCST (block_axis+pairRates_w6)(DI), Z2, Z15
+	SRC(1, AX)
+	SRC(3, BX)
+	DST(1, SI)
+	DST(3, R8)
+	PAIR32(block_axis, Z3, Z10, Z15, AX, BX, SI, R8)
+	SRC(2, AX)
+	SRC(4, BX)
+	DST(2, SI)
+	DST(4, R8)
+	PAIR32(block_axis, Z4, Z11, Z15, AX, BX, SI, R8)
+	// Pairs (5,7), e = (1,1), and (6,8), e = (-1,1).
+	VMULPD.BCST (block_diag+pairRates_w6)(DI), Z2, Z15
+	VADDPD Z4, Z3, Z12 // u_z + u_r
+	VADDPD Z11, Z10, Z13 // F_z + F_r
+	SRC(5, AX)
+	SRC(7, BX)
+	DST(5, SI)
+	DST(7, R8)
+	PAIR32(block_diag, Z12, Z13, Z15, AX, BX, SI, R8)
+	VSUBPD Z3, Z4, Z12 // u_r - u_z
+	VSUBPD Z10, Z11, Z13 // F_r - F_z
+	SRC(6, AX)
+	SRC(8, BX)
+	DST(6, SI)
+	DST(8, R8)
+	PAIR32(block_diag, Z12, Z13, Z15, AX, BX, SI, R8)
+	ADDQ $8, CX
+	JMP ploop32
+
+pdone32:
+	VZEROUPPER
+	RET

@@ -12,3 +12,5 @@ func gatherSIMD(t *block, n, passes int)   { panic("lbm: no SIMD kernel in this 
 func collideSIMD(t *block, n int)          { panic("lbm: no SIMD kernel in this build") }
 func gatherSIMD32(t *block, n, passes int) { panic("lbm: no SIMD kernel in this build") }
 func collideSIMD32(t *block, n int)        { panic("lbm: no SIMD kernel in this build") }
+func planarSIMD(t *block, n int)           { panic("lbm: no SIMD kernel in this build") }
+func planarSIMD32(t *block, n int)         { panic("lbm: no SIMD kernel in this build") }

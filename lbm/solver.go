@@ -135,7 +135,7 @@ func (s *Solver) idx(k, j int) int { return (j+1)*s.w + k + 1 }
 // Step advances the lattice by one time step: it completes the streaming of
 // the previous post-collision state (walls, axis, ends) and collides.
 func (s *Solver) Step() {
-	s.fillHalo(&s.a)
+	s.fillHalo()
 	s.boundaryPass(true)
 	t0 := time.Now()
 	s.pool.run(s.kernel)
