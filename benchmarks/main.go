@@ -140,6 +140,10 @@ func run(w io.Writer, cfg runConfig) error {
 	fmt.Fprintf(w, "Scaling: MLUPS(n) / (n * MLUPS(1)).\n")
 	fmt.Fprintf(w, "lattices: size of the two population lattices; * = fits in the last-level cache,\n")
 	fmt.Fprintf(w, "so that grid can run above the DRAM limit.\n")
+	fmt.Fprintln(w)
+	if err := driveTable(w, threads, cfg.dur); err != nil {
+		return err
+	}
 	fmt.Fprintf(w, "Total time %.1f s.\n", time.Since(start).Seconds())
 	return nil
 }

@@ -62,12 +62,21 @@ type Bodies struct {
 	Domain geometry.Domain
 	List   []*Body
 	fl     *lbm.Solver
+
+	// scratch reused from move to move, so that a step allocates nothing
+	covered, uncovered []geometry.Node
+	fresh              []lbm.Fresh
+	links              []lbm.Link
 }
 
 // NewBodies places spheres with wall velocities v on the lattice fl.
 func NewBodies(fl *lbm.Solver, spheres []geometry.Sphere, v []float64) (*Bodies, error) {
 	nz, nr := fl.Size()
-	bs := &Bodies{Domain: geometry.Domain{Nz: nz, Nr: nr, Periodic: fl.Config().PeriodicZ}, fl: fl}
+	bs := &Bodies{Domain: geometry.Domain{Nz: nz, Nr: nr, Periodic: fl.Config().PeriodicZ}, fl: fl,
+		// a move of less than a cell covers and uncovers at most one node
+		// a row
+		covered: make([]geometry.Node, 0, nr), uncovered: make([]geometry.Node, 0, nr),
+		fresh: make([]lbm.Fresh, 0, nr)}
 	for i, s := range spheres {
 		for _, n := range bs.Domain.Nodes(s) {
 			if fl.Solid(n.K, n.J) {
@@ -88,8 +97,8 @@ func NewBodies(fl *lbm.Solver, spheres []geometry.Sphere, v []float64) (*Bodies,
 // relink recomputes the boundary links of body i.
 func (bs *Bodies) relink(i int) error {
 	b := bs.List[i]
-	links := bs.Domain.Links(b.Shape, bs.fl.Solid)
-	if err := bs.fl.SetBoundary(i, links, b.V); err != nil {
+	bs.links = bs.Domain.AppendLinks(bs.links[:0], b.Shape, bs.fl.Solid)
+	if err := bs.fl.SetBoundary(i, bs.links, b.V); err != nil {
 		return err
 	}
 	_, b.Fallback = bs.fl.BoundaryForce(i)
@@ -111,7 +120,8 @@ func (bs *Bodies) Collect() {
 func (bs *Bodies) MoveTo(i int, z, v float64) error {
 	b := bs.List[i]
 	next := geometry.Sphere{Z: z, Radius: b.Shape.Radius}
-	covered, uncovered := bs.Domain.Move(b.Shape, next)
+	bs.covered, bs.uncovered = bs.Domain.AppendMove(bs.covered[:0], bs.uncovered[:0], b.Shape, next)
+	covered, uncovered := bs.covered, bs.uncovered
 	var pn float64
 	for _, n := range covered {
 		if bs.fl.Solid(n.K, n.J) {
@@ -120,13 +130,13 @@ func (bs *Bodies) MoveTo(i int, z, v float64) error {
 		pn += bs.fl.NodeMomentum(n.K, n.J)
 		bs.fl.SetSolid(n.K, n.J, true)
 	}
-	fresh := make([]lbm.Fresh, len(uncovered))
-	for x, n := range uncovered {
+	bs.fresh = bs.fresh[:0]
+	for _, n := range uncovered {
 		bs.fl.SetSolid(n.K, n.J, false)
 		nz, nr := bs.Domain.Normal(next, n.K, n.J)
-		fresh[x] = lbm.Fresh{K: n.K, J: n.J, Nz: nz, Nr: nr, Uz: v}
+		bs.fresh = append(bs.fresh, lbm.Fresh{K: n.K, J: n.J, Nz: nz, Nr: nr, Uz: v})
 	}
-	pn -= bs.fl.Refill(fresh)
+	pn -= bs.fl.Refill(bs.fresh)
 	b.Shape, b.V = next, v
 	b.NodeImpulse = pn
 	b.NodeForce = b.addImpulse(pn)
@@ -135,14 +145,34 @@ func (bs *Bodies) MoveTo(i int, z, v float64) error {
 	if err := bs.relink(i); err != nil {
 		return err
 	}
-	if len(covered)+len(uncovered) > 0 {
-		for k := range bs.List {
-			if k != i {
-				if err := bs.relink(k); err != nil {
-					return err
-				}
+	for k := range bs.List {
+		if k != i && bs.near(k, covered, uncovered) {
+			if err := bs.relink(k); err != nil {
+				return err
 			}
 		}
 	}
 	return nil
+}
+
+// linkReach is how far along z from a body's centre, beyond its radius, the
+// solid flags that its links depend on can lie: the link nodes lie within
+// the radius plus 3 cells (geometry.Domain.Links's box) and the
+// interpolation reads up to 2 cells further (lbm.Solver.SetBoundary). One
+// more cell covers the rounding.
+const linkReach = 6
+
+// near reports whether any of the nodes that changed lies where it can
+// change body k's links; otherwise rebuilding them would give the same
+// links, bit for bit.
+func (bs *Bodies) near(k int, changed ...[]geometry.Node) bool {
+	s := bs.List[k].Shape
+	for _, ns := range changed {
+		for _, n := range ns {
+			if bs.Domain.Within(s, n.K, s.Radius+linkReach) {
+				return true
+			}
+		}
+	}
+	return false
 }

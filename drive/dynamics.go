@@ -53,6 +53,41 @@ type Dynamics struct {
 
 	groups []armGroup // bodies joined by arms
 	free   []int      // bodies not in an arm group
+	work   dynWork    // scratch of Step
+}
+
+// dynWork is the scratch space of Dynamics.Step, kept so that a step
+// allocates nothing: per body the forces, right-hand side, masses, new
+// velocities and membership of the free set; the n x n dashpot matrix;
+// the system restricted to the m free bodies and its solution.
+type dynWork struct {
+	spring, rhs, mhat, next []float64
+	inFree                  []bool
+	mat                     [][]float64
+	a                       [][]float64
+	b, sol                  []float64
+}
+
+// size makes the scratch fit n bodies, m of them free.
+func (w *dynWork) size(n, m int) {
+	if len(w.rhs) == n && len(w.b) == m {
+		return
+	}
+	w.spring, w.rhs, w.mhat, w.next = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
+	w.inFree = make([]bool, n)
+	w.mat = square(n)
+	w.a = square(m)
+	w.b, w.sol = make([]float64, m), make([]float64, m)
+}
+
+// square returns an n x n matrix whose rows share one allocation.
+func square(n int) [][]float64 {
+	back := make([]float64, n*n)
+	m := make([][]float64, n)
+	for k := range m {
+		m[k] = back[k*n : (k+1)*n : (k+1)*n]
+	}
+	return m
 }
 
 // ArmLink prescribes the distance of bodies I and J: Z_J - Z_I =
@@ -132,6 +167,13 @@ func (d *Dynamics) Init() error {
 // body at the positions Z (used for the right-hand side and for energy).
 func (d *Dynamics) Forces(z []float64) []float64 {
 	f := make([]float64, len(z))
+	d.forces(f, z)
+	return f
+}
+
+// forces stores the forces of Forces in f (len(z) values).
+func (d *Dynamics) forces(f, z []float64) {
+	clear(f)
 	for _, s := range d.Springs {
 		dz := z[s.J] - z[s.I]
 		dist := math.Abs(dz)
@@ -163,7 +205,6 @@ func (d *Dynamics) Forces(z []float64) []float64 {
 			}
 		}
 	}
-	return f
 }
 
 // Step advances the bodies from t_n to t_{n+1}: fh[k] is the hydrodynamic
@@ -175,24 +216,26 @@ func (d *Dynamics) Step(fh, ext []float64, t float64) {
 	for k := 0; k < n; k++ {
 		d.Z[k] += d.V[k]
 	}
-	spring := d.Forces(d.Z)
-	rhs := make([]float64, n)
-	mhat := make([]float64, n)
+	w := &d.work
+	w.size(n, len(d.free))
+	spring, rhs, mhat, next := w.spring, w.rhs, w.mhat, w.next
+	d.forces(spring, d.Z)
 	for k := 0; k < n; k++ {
 		mhat[k] = d.Mass[k] + d.Virtual[k]
 		acc := d.V[k] - d.VPrev[k]
 		rhs[k] = mhat[k]*d.V[k] + fh[k] + ext[k] + spring[k] + d.Virtual[k]*acc
 	}
-	next := make([]float64, n)
+	clear(next)
 	// Dashpots: trapezoidal, implicit among free bodies; explicit (old
 	// relative velocity) where an arm group is involved.
-	inFree := make([]bool, n)
+	inFree := w.inFree
+	clear(inFree)
 	for _, k := range d.free {
 		inFree[k] = true
 	}
-	mat := make([][]float64, n)
+	mat := w.mat
 	for k := range mat {
-		mat[k] = make([]float64, n)
+		clear(mat[k])
 		mat[k][k] = mhat[k]
 	}
 	for _, s := range d.Springs {
@@ -215,17 +258,14 @@ func (d *Dynamics) Step(fh, ext []float64, t float64) {
 	}
 	// Free bodies: solve the (small) linear system restricted to them.
 	if len(d.free) > 0 {
-		m := len(d.free)
-		a := make([][]float64, m)
-		b := make([]float64, m)
+		a, b := w.a, w.b
 		for x, k := range d.free {
-			a[x] = make([]float64, m)
 			for y, l := range d.free {
 				a[x][y] = mat[k][l]
 			}
 			b[x] = rhs[k]
 		}
-		sol := solveDense(a, b)
+		sol := solveDense(w.sol, a, b)
 		for x, k := range d.free {
 			next[k] = sol[x]
 		}
@@ -264,8 +304,9 @@ func (d *Dynamics) Energy() (kinetic, spring float64) {
 }
 
 // solveDense solves a x = b by Gaussian elimination with partial pivoting
-// (a and b are overwritten).
-func solveDense(a [][]float64, b []float64) []float64 {
+// into x (len(b) values) and returns it; a and b are overwritten (the rows
+// of a swapped).
+func solveDense(x []float64, a [][]float64, b []float64) []float64 {
 	n := len(b)
 	for c := 0; c < n; c++ {
 		p := c
@@ -284,7 +325,6 @@ func solveDense(a [][]float64, b []float64) []float64 {
 			b[r] -= f * b[c]
 		}
 	}
-	x := make([]float64, n)
 	for r := n - 1; r >= 0; r-- {
 		s := b[r]
 		for k := r + 1; k < n; k++ {

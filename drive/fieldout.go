@@ -12,10 +12,15 @@ func (s *Simulation) vtkGrid() output.Grid {
 }
 
 // bodyVelocity returns, for every node, the axial velocity (lattice units)
-// of the body that covers it, 0 for fluid nodes.
-func (s *Simulation) bodyVelocity(solid []bool) []float64 {
+// of the body that covers it, 0 for fluid nodes, in v (allocated unless it
+// has the size of the lattice).
+func (s *Simulation) bodyVelocity(v []float64, solid []bool) []float64 {
 	l := s.Lattice
-	v := make([]float64, l.Nz*l.Nr)
+	if len(v) != l.Nz*l.Nr {
+		v = make([]float64, l.Nz*l.Nr)
+	} else {
+		clear(v)
+	}
 	if s.sw == nil {
 		return v
 	}
@@ -23,7 +28,8 @@ func (s *Simulation) bodyVelocity(solid []bool) []float64 {
 	dom := s.sw.bodies.Domain
 	for k, b := range s.sw.bodies.List {
 		vk := 0.5 * (d.V[k] + d.VPrev[k])
-		for _, n := range dom.Nodes(b.Shape) {
+		s.sw.nodes = dom.AppendNodes(s.sw.nodes[:0], b.Shape)
+		for _, n := range s.sw.nodes {
 			if i := n.J*l.Nz + n.K; solid[i] {
 				v[i] = vk
 			}
@@ -32,10 +38,13 @@ func (s *Simulation) bodyVelocity(solid []bool) []float64 {
 	return v
 }
 
-// solidMask reports the nodes inside a body now.
-func (s *Simulation) solidMask() []bool {
+// solidMask reports the nodes inside a body now, in m (allocated unless
+// it has the size of the lattice).
+func (s *Simulation) solidMask(m []bool) []bool {
 	l := s.Lattice
-	m := make([]bool, l.Nz*l.Nr)
+	if len(m) != l.Nz*l.Nr {
+		m = make([]bool, l.Nz*l.Nr)
+	}
 	for j := 0; j < l.Nr; j++ {
 		for k := 0; k < l.Nz; k++ {
 			m[j*l.Nz+k] = s.Fluid.Solid(k, j)
@@ -54,7 +63,7 @@ func (s *Simulation) vtkFields(f *lbm.Fields, solid []bool) []output.Field {
 	l := s.Lattice
 	n := f.Nz * f.Nr
 	clean := &lbm.Fields{Nz: f.Nz, Nr: f.Nr, Uz: make([]float64, n), Ur: make([]float64, n), Rho: make([]float64, n)}
-	body := s.bodyVelocity(solid)
+	body := s.bodyVelocity(nil, solid)
 	for i := 0; i < n; i++ {
 		if solid[i] {
 			clean.Uz[i], clean.Rho[i] = body[i], 1 // rigid motion inside a body

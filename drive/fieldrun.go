@@ -27,6 +27,10 @@ type fieldRecorder struct {
 	snaps     []output.CollectionEntry
 	frames    []output.FieldPicture // vorticity of the last period's snapshots
 	err       error
+
+	// scratch of a sample, reused so that sampling allocates nothing
+	solid []bool    // nodes inside a body
+	body  []float64 // their velocity
 }
 
 func newFieldRecorder(sim *Simulation, dir string) *fieldRecorder {
@@ -79,8 +83,9 @@ func (r *fieldRecorder) step(n int64) {
 	}
 	r.sim.Observe()
 	f := r.sim.Fields()
-	solid := r.sim.solidMask()
-	body := r.sim.bodyVelocity(solid)
+	r.solid = r.sim.solidMask(r.solid)
+	r.body = r.sim.bodyVelocity(r.body, r.solid)
+	solid, body := r.solid, r.body
 	if inAvg && mi >= 0 {
 		r.mean.add(f, solid, body)
 	}

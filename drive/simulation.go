@@ -122,7 +122,12 @@ type Observation struct {
 func (s *Simulation) Observe() Observation {
 	t := s.Time()
 	s.Fluid.SetForce(s.liquidForce(t), 0)
-	s.fields = s.Fluid.Fields(s.fields)
+	var rho float64 // the liquid's mean density, needed with spheres
+	if s.sw != nil {
+		s.fields, rho = s.Fluid.FieldsDensity(s.fields)
+	} else {
+		s.fields = s.Fluid.Fields(s.fields)
+	}
 	f := s.fields
 	var umax2, flux, vol float64
 	finite := true
@@ -159,7 +164,7 @@ func (s *Simulation) Observe() Observation {
 		MaxSpeed:          umax * c,
 		Mach:              umax / math.Sqrt(lbm.Cs2),
 		MeanAxialVelocity: flux / vol * c,
-		MassDrift:         s.massDrift(f),
+		MassDrift:         s.massDrift(f, rho),
 		Finite:            finite,
 		MinRho:            minRho,
 		MaxRho:            maxRho,
@@ -169,10 +174,11 @@ func (s *Simulation) Observe() Observation {
 
 // massDrift is the relative change of the liquid's 3D mass, or with
 // moving spheres (whose covered and uncovered nodes change the liquid's
-// lattice volume) of its mean density, after the corrections.
-func (s *Simulation) massDrift(f *lbm.Fields) float64 {
+// lattice volume) of its mean density rho (lbm.Solver.FluidDensity), after
+// the corrections.
+func (s *Simulation) massDrift(f *lbm.Fields, rho float64) float64 {
 	if s.sw != nil {
-		return s.Fluid.FluidDensity()/s.sw.mass.Rho0 - 1
+		return rho/s.sw.mass.Rho0 - 1
 	}
 	return s.Fluid.Mass3D(f)/s.mass0 - 1
 }
@@ -192,16 +198,20 @@ const (
 // Guard returns a diagnosis when an observation breaks a hard limit: which
 // limit, where, and the remedy; "" when all is well.
 func (s *Simulation) Guard(o Observation) string {
-	where := fmt.Sprintf("at t = %.6g s, largest speed at z = %.4g m, r = %.4g m", o.Time, o.MaxAt[0], o.MaxAt[1])
+	// where is only formatted when a limit is broken: a guard that holds
+	// allocates nothing.
+	where := func() string {
+		return fmt.Sprintf("at t = %.6g s, largest speed at z = %.4g m, r = %.4g m", o.Time, o.MaxAt[0], o.MaxAt[1])
+	}
 	switch {
 	case !o.Finite:
-		return "non-finite values (NaN or Inf) in the fields " + where + ": " + s.instabilityRemedy()
+		return "non-finite values (NaN or Inf) in the fields " + where() + ": " + s.instabilityRemedy()
 	case o.Mach > guardMach:
 		return fmt.Sprintf("Mach number %.3g above %g %s: lower the velocity scale on the lattice "+
-			"(raise grid.cells_per_radius, or let the tool choose the time step by removing grid.tau)", o.Mach, guardMach, where)
+			"(raise grid.cells_per_radius, or let the tool choose the time step by removing grid.tau)", o.Mach, guardMach, where())
 	case o.MaxRho-1 > guardDensity || 1-o.MinRho > guardDensity:
 		return fmt.Sprintf("lattice density range %.4g to %.4g, more than %g%% from the reference, %s: the weakly "+
-			"compressible scheme no longer holds; raise grid.cells_per_radius or lower the time step", o.MinRho, o.MaxRho, 100*guardDensity, where)
+			"compressible scheme no longer holds; raise grid.cells_per_radius or lower the time step", o.MinRho, o.MaxRho, 100*guardDensity, where())
 	}
 	return ""
 }

@@ -14,8 +14,9 @@ type swimmer struct {
 	bodies *Bodies
 	dyn    *Dynamics
 	mass   *MassKeeper
-	fh     []float64 // scratch: hydrodynamic forces
-	ext    []float64 // scratch: frame, gravity and buoyancy forces
+	fh     []float64       // scratch: hydrodynamic forces
+	ext    []float64       // scratch: frame, gravity and buoyancy forces
+	nodes  []geometry.Node // scratch: the nodes of a body (bodyVelocity)
 }
 
 // massCadence is the step cadence of the global mass correction: one

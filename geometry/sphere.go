@@ -90,7 +90,11 @@ type Node struct{ K, J int }
 
 // Nodes returns the nodes inside or on the sphere.
 func (d Domain) Nodes(s Sphere) []Node {
-	var out []Node
+	return d.AppendNodes(nil, s)
+}
+
+// AppendNodes is Nodes appending to out.
+func (d Domain) AppendNodes(out []Node, s Sphere) []Node {
 	k0, k1, j1 := d.box(s)
 	for j := 0; j <= j1; j++ {
 		for k := k0; k <= k1; k++ {
@@ -108,15 +112,28 @@ func (d Domain) Nodes(s Sphere) []Node {
 // row 0 that cross the axis into the mirror image are included. The order
 // is by row, then column, then direction, so it is reproducible.
 func (d Domain) Links(s Sphere, solid func(k, j int) bool) []lbm.Link {
-	var out []lbm.Link
+	return d.AppendLinks(nil, s, solid)
+}
+
+// AppendLinks is Links appending to out, so that a caller can reuse one
+// slice from step to step.
+func (d Domain) AppendLinks(out []lbm.Link, s Sphere, solid func(k, j int) bool) []lbm.Link {
 	k0, k1, j1 := d.box(s)
+	// A node further than a + sqrt(2) from the centre has no neighbour
+	// inside (triangle inequality, also for the mirror image and the
+	// nearest periodic image) and is skipped before the eight tests; the
+	// margin 1.5 > sqrt(2) covers the round-off of Inside.
+	far := (s.Radius + 1.5) * (s.Radius + 1.5)
 	for j := 0; j <= j1; j++ {
 		for kk := k0; kk <= k1; kk++ {
 			k := d.wrap(kk)
+			z, r := float64(kk)+0.5, float64(j)+0.5
+			if x := d.dz(z, s.Z); x*x+r*r > far {
+				continue
+			}
 			if k < 0 || k >= d.Nz || solid(k, j) {
 				continue
 			}
-			z, r := float64(kk)+0.5, float64(j)+0.5
 			for i := 1; i < lbm.Q; i++ {
 				if !d.Inside(s, z+float64(lbm.Ez[i]), r+float64(lbm.Er[i])) {
 					continue
@@ -134,6 +151,12 @@ func (d Domain) Links(s Sphere, solid func(k, j int) bool) []lbm.Link {
 	return out
 }
 
+// Within reports whether node (k, j) lies within dist along z of the
+// sphere's centre (nearest periodic image), whatever its row.
+func (d Domain) Within(s Sphere, k int, dist float64) bool {
+	return math.Abs(d.dz(float64(k)+0.5, s.Z)) <= dist
+}
+
 // Normal returns the outward unit normal of the sphere at node (k, j).
 func (d Domain) Normal(s Sphere, k, j int) (nz, nr float64) {
 	x := d.dz(float64(k)+0.5, s.Z)
@@ -145,22 +168,90 @@ func (d Domain) Normal(s Sphere, k, j int) (nz, nr float64) {
 // Move returns the nodes that a sphere moving from a to b covers (inside b,
 // not inside a) and uncovers (inside a, not inside b).
 func (d Domain) Move(a, b Sphere) (covered, uncovered []Node) {
+	return d.AppendMove(nil, nil, a, b)
+}
+
+// AppendMove is Move appending to covered and uncovered, so that a caller
+// can reuse the slices from step to step.
+//
+// In a row, a node can be inside one sphere and not the other only
+// between the two back ends of the spheres' chords or between the two
+// front ends (or anywhere on the chord of a sphere that the other misses),
+// so each row is scanned only in windows around those, padded by a cell
+// against round-off; every node the windows hold is tested exactly as
+// before, in the same order. When a periodic image could fold back into
+// the box (a span wider than half the domain), the whole box is scanned.
+func (d Domain) AppendMove(covered, uncovered []Node, a, b Sphere) ([]Node, []Node) {
 	lo, hi := a, b
 	if b.Z < a.Z {
 		lo, hi = b, a
 	}
 	span := Sphere{Z: 0.5 * (lo.Z + hi.Z), Radius: 0.5*(hi.Z-lo.Z) + math.Max(a.Radius, b.Radius)}
 	k0, k1, j1 := d.box(span)
+	windows := !d.Periodic || 2*(span.Radius+4) < float64(d.Nz)
 	for j := 0; j <= j1; j++ {
-		for k := k0; k <= k1; k++ {
-			ina, inb := d.NodeInside(a, k, j), d.NodeInside(b, k, j)
-			switch {
-			case inb && !ina:
-				covered = append(covered, Node{d.wrap(k), j})
-			case ina && !inb:
-				uncovered = append(uncovered, Node{d.wrap(k), j})
+		w := [2][2]int{{k0, k1}, {1, 0}} // the whole row, and an empty window
+		if windows {
+			var ok bool
+			if w, ok = moveWindows(a, b, j, k0, k1); !ok {
+				continue
+			}
+		}
+		for _, kw := range w {
+			for k := kw[0]; k <= kw[1]; k++ {
+				ina, inb := d.NodeInside(a, k, j), d.NodeInside(b, k, j)
+				switch {
+				case inb && !ina:
+					covered = append(covered, Node{d.wrap(k), j})
+				case ina && !inb:
+					uncovered = append(uncovered, Node{d.wrap(k), j})
+				}
 			}
 		}
 	}
 	return covered, uncovered
+}
+
+// chord returns the half-length of the chord of sphere s along row j; ok
+// is false when the row misses the sphere (then no node of the row is
+// inside it: x^2 + r^2 >= r^2 > a^2 in floating point too).
+func chord(s Sphere, j int) (h float64, ok bool) {
+	r := float64(j) + 0.5
+	h2 := s.Radius*s.Radius - r*r
+	if h2 < 0 {
+		return 0, false
+	}
+	return math.Sqrt(h2), true
+}
+
+// moveWindows returns the node ranges of row j, within [k0, k1] and in
+// increasing order, that hold every node inside one of a and b and not the
+// other; ok is false when the row misses both.
+func moveWindows(a, b Sphere, j, k0, k1 int) (w [2][2]int, ok bool) {
+	ha, oka := chord(a, j)
+	hb, okb := chord(b, j)
+	var z [2][2]float64 // windows in z
+	switch {
+	case oka && okb:
+		z[0] = [2]float64{math.Min(a.Z-ha, b.Z-hb), math.Max(a.Z-ha, b.Z-hb)}
+		z[1] = [2]float64{math.Min(a.Z+ha, b.Z+hb), math.Max(a.Z+ha, b.Z+hb)}
+	case oka:
+		z[0], z[1] = [2]float64{a.Z - ha, a.Z + ha}, [2]float64{1, 0}
+	case okb:
+		z[0], z[1] = [2]float64{b.Z - hb, b.Z + hb}, [2]float64{1, 0}
+	default:
+		return w, false
+	}
+	for x := range z {
+		if z[x][0] > z[x][1] {
+			w[x] = [2]int{1, 0}
+			continue
+		}
+		// node k sits at z = k + 1/2; one cell of padding each side
+		w[x] = [2]int{max(k0, int(math.Floor(z[x][0]-1.5))), min(k1, int(math.Ceil(z[x][1]+0.5)))}
+	}
+	if w[1][0] <= w[0][1]+1 && w[1][0] <= w[1][1] { // overlapping or adjacent: one window
+		w[0][1], w[1] = max(w[0][1], w[1][1]), [2]int{1, 0}
+	}
+	return w, true
 }

@@ -23,31 +23,62 @@ func (f *Fields) At(k, j int) int { return j*f.Nz + k }
 // with the half-step shifted moments of the scheme and the force set by
 // SetForce, into dst (allocated when nil). It reads the lattice only.
 func (s *Solver) Fields(dst *Fields) *Fields {
+	dst, _ = s.fields(dst, false)
+	return dst
+}
+
+// FieldsDensity is Fields that also returns FluidDensity, measured in the
+// same parallel pass: each row's post-collision populations are summed
+// right after the row's moments, while they are in cache. The density is
+// the same number, bit for bit, as FluidDensity's (the rows are summed in
+// the same order; the halo and the slots inside bodies that the pass
+// writes are not fluid nodes).
+func (s *Solver) FieldsDensity(dst *Fields) (*Fields, float64) {
+	return s.fields(dst, true)
+}
+
+func (s *Solver) fields(dst *Fields, density bool) (*Fields, float64) {
 	if dst == nil || dst.Nz != s.nz || dst.Nr != s.nr {
 		dst = NewFields(s.nz, s.nr)
 	}
 	s.fillHalo()
 	s.boundaryPass(false)
-	s.pool.run(func(lo, hi, _ int) {
-		for j := lo; j < hi; j++ {
-			row := dst.At(0, j)
-			clear(dst.Rho[row : row+s.nz])
-			clear(dst.Uz[row : row+s.nz])
-			clear(dst.Ur[row : row+s.nz])
-			base := s.idx(0, j)
-			for _, seg := range s.segs[j] {
-				s.sweep(base+seg[0], base+seg[1], &s.rows[j], dst, row+seg[0])
-			}
+	m := s.sumRows(task{f: dst, on: density, fn: fieldsRows})
+	if !density {
+		return dst, 0
+	}
+	return dst, m / s.fluidVolume()
+}
+
+// fieldsRows computes the moments of rows [lo, hi) into t.f and, when
+// t.on, stores each row's ring-weighted fluid mass in rowSum.
+func fieldsRows(t *task, lo, hi, _ int) {
+	s, dst := t.s, t.f
+	for j := lo; j < hi; j++ {
+		row := dst.At(0, j)
+		clear(dst.Rho[row : row+s.nz])
+		clear(dst.Uz[row : row+s.nz])
+		clear(dst.Ur[row : row+s.nz])
+		base := s.idx(0, j)
+		for _, seg := range s.segs[j] {
+			s.sweep(base+seg[0], base+seg[1], &s.rows[j], dst, row+seg[0])
 		}
-	})
-	return dst
+		if t.on {
+			s.rowSum[j] = s.fluidMassRow(j)
+		}
+	}
 }
 
 // Mass returns the lattice mass: the sum over fluid nodes of sum_i f_i.
 // The planar scheme conserves it to round-off. It is summed row by row in a
 // fixed order, so it does not depend on the number of goroutines.
 func (s *Solver) Mass() float64 {
-	return s.reduceRows(func(j int) float64 {
+	return s.sumRows(task{fn: massRows})
+}
+
+func massRows(t *task, lo, hi, _ int) {
+	s := t.s
+	for j := lo; j < hi; j++ {
 		var m float64
 		for k := 0; k < s.nz; k++ {
 			n := s.idx(k, j)
@@ -60,8 +91,8 @@ func (s *Solver) Mass() float64 {
 			}
 			m += 1 + dm
 		}
-		return m
-	})
+		s.rowSum[j] = m
+	}
 }
 
 // Mass3D returns the mass of the axisymmetric body of fluid,
@@ -69,7 +100,12 @@ func (s *Solver) Mass() float64 {
 // half-step shifted density of the scheme. The axisymmetric scheme
 // conserves it only to truncation error (METHODS.md 3.5.2).
 func (s *Solver) Mass3D(f *Fields) float64 {
-	return s.reduceRows(func(j int) float64 {
+	return s.sumRows(task{f: f, fn: mass3DRows})
+}
+
+func mass3DRows(t *task, lo, hi, _ int) {
+	s, f := t.s, t.f
+	for j := lo; j < hi; j++ {
 		var m float64
 		r := s.rows[j].r
 		for k := 0; k < s.nz; k++ {
@@ -78,23 +114,27 @@ func (s *Solver) Mass3D(f *Fields) float64 {
 			}
 			m += 2 * math.Pi * r * f.Rho[f.At(k, j)]
 		}
-		return m
-	})
+		s.rowSum[j] = m
+	}
 }
 
-// reduceRows sums fn(j) over all rows, each row computed by its worker and
-// the partial sums added in row order.
-func (s *Solver) reduceRows(fn func(j int) float64) float64 {
-	s.pool.run(func(lo, hi, _ int) {
-		for j := lo; j < hi; j++ {
-			s.rowSum[j] = fn(j)
-		}
-	})
-	var t float64
+// runRows runs t on all rows in parallel; it allocates nothing.
+func (s *Solver) runRows(t task) {
+	t.s = s
+	s.pool.runTask(t)
+}
+
+// sumRows runs t on all rows in parallel and returns the sum of the row
+// values it stored in rowSum, added in row order (0 for a task that
+// stores none). It allocates nothing.
+func (s *Solver) sumRows(t task) float64 {
+	clear(s.rowSum)
+	s.runRows(t)
+	var sum float64
 	for _, v := range s.rowSum {
-		t += v
+		sum += v
 	}
-	return t
+	return sum
 }
 
 // SetEquilibrium sets every fluid node to the equilibrium of the density and

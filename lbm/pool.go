@@ -9,6 +9,25 @@ type pool struct {
 	slabs [][2]int // rows [lo, hi) of each worker
 	start []chan func(lo, hi, w int)
 	done  sync.WaitGroup
+
+	// cur is the pass that runTask is running and runCur the function,
+	// made once, that hands it to the workers.
+	cur    task
+	runCur func(lo, hi, w int)
+}
+
+// task is a parallel pass given as a plain function and its arguments
+// rather than as a closure: a closure handed to the workers escapes to the
+// heap, so making one for every pass would allocate, while a task is
+// copied into the pool and its function is a static one. fn does rows
+// [lo, hi) of worker w; a reduction stores each row's value in
+// s.rowSum[j].
+type task struct {
+	s  *Solver
+	f  *Fields
+	x  float64
+	on bool // a switch for fn
+	fn func(t *task, lo, hi, w int)
 }
 
 func newPool(rows, n int) *pool {
@@ -19,6 +38,7 @@ func newPool(rows, n int) *pool {
 		p.slabs = append(p.slabs, [2]int{lo, hi})
 	}
 	p.start = make([]chan func(lo, hi, w int), n)
+	p.runCur = func(lo, hi, w int) { p.cur.fn(&p.cur, lo, hi, w) }
 	for w := 1; w < n; w++ {
 		ch := make(chan func(lo, hi, w int))
 		p.start[w] = ch
@@ -42,6 +62,13 @@ func (p *pool) run(fn func(lo, hi, w int)) {
 	}
 	fn(p.slabs[0][0], p.slabs[0][1], 0)
 	p.done.Wait()
+}
+
+// runTask runs t on every slab in parallel, like run, without allocating.
+func (p *pool) runTask(t task) {
+	p.cur = t
+	p.run(p.runCur)
+	p.cur = task{}
 }
 
 func (p *pool) close() {

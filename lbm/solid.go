@@ -71,17 +71,13 @@ type Fresh struct {
 // momentum rho_n u_w. Without a fluid neighbour it falls back to the
 // equilibrium at unit density (METHODS.md 6.2 option 1).
 func (s *Solver) Refill(nodes []Fresh) float64 {
-	fresh := make(map[int]bool, len(nodes))
-	for _, f := range nodes {
-		fresh[s.idx(f.K, f.J)] = true
-	}
 	var total float64
 	for _, f := range nodes {
 		n := s.idx(f.K, f.J)
 		best, bn, bmirror := -2.0, -1, false
 		for i := 1; i < Q; i++ {
 			nn, d, ok := s.fluidAt(f.K+Ez[i], f.J+Er[i], i)
-			if !ok || fresh[nn] {
+			if !ok || s.isFresh(nodes, nn) {
 				continue
 			}
 			c := (f.Nz*float64(Ez[i]) + f.Nr*float64(Er[i])) / math.Hypot(float64(Ez[i]), float64(Er[i]))
@@ -122,6 +118,20 @@ func (s *Solver) Refill(nodes []Fresh) float64 {
 	return total
 }
 
+// isFresh reports whether storage index n is one of the nodes being
+// refilled, which cannot serve as a neighbour. A move uncovers a handful
+// of nodes per body and step (at most about two per row of the body: the
+// wall CFL limit keeps a move below one cell), so a linear search costs
+// less than building a set, and it allocates nothing.
+func (s *Solver) isFresh(nodes []Fresh, n int) bool {
+	for _, f := range nodes {
+		if s.idx(f.K, f.J) == n {
+			return true
+		}
+	}
+	return false
+}
+
 // feqDeviation is f_i^eq(rho, u) - w_i (METHODS.md 1.2).
 func feqDeviation(i int, rho, uz, ur float64) float64 {
 	eu := float64(Ez[i])*uz + float64(Er[i])*ur
@@ -131,47 +141,67 @@ func feqDeviation(i int, rho, uz, ur float64) float64 {
 // FluidDensity returns the mean density of the fluid, sum 2 pi r rho over
 // sum 2 pi r on the fluid nodes, from the post-collision populations.
 func (s *Solver) FluidDensity() float64 {
-	vol := s.reduceRows(func(j int) float64 {
+	return s.sumRows(task{fn: fluidMassRows}) / s.fluidVolume()
+}
+
+// fluidVolume is the denominator of FluidDensity, sum over fluid nodes of
+// r, added row by row in row order. It reads only the fluid runs, so it
+// is done on the calling goroutine.
+func (s *Solver) fluidVolume() float64 {
+	var vol float64
+	for j := range s.segs {
 		var v float64
 		for _, seg := range s.segs[j] {
 			v += float64(seg[1] - seg[0])
 		}
-		return v * s.rows[j].r
-	})
-	m := s.reduceRows(func(j int) float64 {
-		var m float64
-		base := s.idx(0, j)
-		for _, seg := range s.segs[j] {
-			for n := base + seg[0]; n < base+seg[1]; n++ {
-				var d float64
-				for i := 0; i < Q; i++ {
-					d += s.a[i][n]
-				}
-				m += 1 + d
+		vol += v * s.rows[j].r
+	}
+	return vol
+}
+
+func fluidMassRows(t *task, lo, hi, _ int) {
+	for j := lo; j < hi; j++ {
+		t.s.rowSum[j] = t.s.fluidMassRow(j)
+	}
+}
+
+// fluidMassRow is row j's share of the numerator of FluidDensity:
+// r sum over its fluid nodes of rho.
+func (s *Solver) fluidMassRow(j int) float64 {
+	var m float64
+	base := s.idx(0, j)
+	for _, seg := range s.segs[j] {
+		for n := base + seg[0]; n < base+seg[1]; n++ {
+			var d float64
+			for i := 0; i < Q; i++ {
+				d += s.a[i][n]
 			}
+			m += 1 + d
 		}
-		return m * s.rows[j].r
-	})
-	return m / vol
+	}
+	return m * s.rows[j].r
 }
 
 // ShiftDensity adds w_i drho to every fluid node: a global mass correction
 // that changes the density and not the momentum (METHODS.md 6.3).
 func (s *Solver) ShiftDensity(drho float64) {
-	s.pool.run(func(lo, hi, _ int) {
-		for j := lo; j < hi; j++ {
-			base := s.idx(0, j)
-			for _, seg := range s.segs[j] {
-				for i := 0; i < Q; i++ {
-					p := s.a[i][base+seg[0] : base+seg[1]]
-					w := W[i] * drho
-					for x := range p {
-						p[x] += w
-					}
+	s.runRows(task{x: drho, fn: shiftRows})
+}
+
+func shiftRows(t *task, lo, hi, _ int) {
+	s, drho := t.s, t.x
+	for j := lo; j < hi; j++ {
+		base := s.idx(0, j)
+		for _, seg := range s.segs[j] {
+			for i := 0; i < Q; i++ {
+				p := s.a[i][base+seg[0] : base+seg[1]]
+				w := W[i] * drho
+				for x := range p {
+					p[x] += w
 				}
 			}
 		}
-	})
+	}
 }
 
 // LatticeState is everything a Step reads of the lattice: the

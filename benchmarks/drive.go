@@ -1,0 +1,155 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"runtime"
+	"time"
+
+	"axiswim/cases"
+	"axiswim/drive"
+)
+
+// driveCells are the resolutions of the demo whose drive step is timed:
+// the demo as shipped (12 cells per radius of the small sphere) and a
+// finer case at 24.
+var driveCells = []int{12, 24}
+
+// driveWarmUp is the number of steps a simulation takes before any
+// timing: the lattice and scratch pages are touched, the workers are
+// running, the mass keeper has corrected once (every 200 steps) and the
+// spheres have crossed nodes, so that the boundary and body work is that of
+// a running case.
+const driveWarmUp = 400
+
+// demoCase returns the embedded demo case with grid.cells_per_radius set
+// to cells.
+func demoCase(cells int) (*cases.Case, error) {
+	src, err := cases.Get("demo")
+	if err != nil {
+		return nil, err
+	}
+	c, err := cases.Parse("demo (embedded)", src)
+	if err != nil {
+		return nil, err
+	}
+	c.Grid.CellsPerRadius = cells
+	return c, nil
+}
+
+// newDemo sets up the demo at cells per radius with the given number of
+// goroutines and takes the warm-up steps. It returns the time the set-up
+// took (without the warm-up).
+func newDemo(cells, threads int) (*drive.Simulation, time.Duration, error) {
+	c, err := demoCase(cells)
+	if err != nil {
+		return nil, 0, err
+	}
+	t0 := time.Now()
+	sim, err := drive.Setup(c, threads)
+	if err != nil {
+		return nil, 0, fmt.Errorf("demo at %d cells per radius: %w", cells, err)
+	}
+	setup := time.Since(t0)
+	if err := sim.Advance(driveWarmUp); err != nil {
+		sim.Close()
+		return nil, 0, fmt.Errorf("demo at %d cells per radius, warm-up: %w", cells, err)
+	}
+	return sim, setup, nil
+}
+
+// driveResult is the timing of a stretch of drive steps.
+type driveResult struct {
+	cells, nz, nr  int
+	stepsPerPeriod int
+	threads        int
+	setup          time.Duration // drive.Setup
+	steps          int           // steps timed
+	wall, kernel   time.Duration // their wall time, and the part in the fluid kernel
+	allocs         uint64        // heap allocations during them
+}
+
+// perPeriod is the wall time per drive period.
+func (r driveResult) perPeriod() time.Duration {
+	return time.Duration(float64(r.wall) / float64(r.steps) * float64(r.stepsPerPeriod))
+}
+
+// outside is the share of a step's wall time spent outside the fluid
+// kernel: halo, boundary links, bodies, dynamics, mass keeper.
+func (r driveResult) outside() float64 { return 1 - float64(r.kernel)/float64(r.wall) }
+
+// allocsPerStep is the number of heap allocations per step.
+func (r driveResult) allocsPerStep() float64 { return float64(r.allocs) / float64(r.steps) }
+
+// timed describes what was timed: whole periods, or steps extrapolated to
+// a period.
+func (r driveResult) timed() string {
+	if r.steps%r.stepsPerPeriod == 0 {
+		return fmt.Sprintf("%d periods", r.steps/r.stepsPerPeriod)
+	}
+	return fmt.Sprintf("%d steps", r.steps)
+}
+
+// measureDrive sets up the demo at cells per radius, warms it up and times
+// Advance for about dur: whole drive periods when dur holds at least one
+// (the estimate of a step's time comes from the warm-up), otherwise the
+// steps that fit, whose time is extrapolated to a period.
+func measureDrive(cells, threads int, dur time.Duration) (driveResult, error) {
+	t0 := time.Now()
+	sim, setup, err := newDemo(cells, threads)
+	if err != nil {
+		return driveResult{}, err
+	}
+	defer sim.Close()
+	perStep := (time.Since(t0) - setup) / driveWarmUp
+	l := sim.Lattice
+	r := driveResult{cells: cells, nz: l.Nz, nr: l.Nr, stepsPerPeriod: l.StepsPerPeriod,
+		threads: sim.Fluid.Threads(), setup: setup}
+	r.steps = max(1, int(dur/max(perStep, 1)))
+	if r.steps >= r.stepsPerPeriod {
+		r.steps -= r.steps % r.stepsPerPeriod
+	}
+	var before, after runtime.MemStats
+	runtime.ReadMemStats(&before)
+	k0 := sim.Fluid.KernelTime()
+	start := time.Now()
+	err = sim.Advance(r.steps)
+	r.wall = time.Since(start)
+	r.kernel = sim.Fluid.KernelTime() - k0
+	runtime.ReadMemStats(&after)
+	if err != nil {
+		return driveResult{}, fmt.Errorf("demo at %d cells per radius: %w", cells, err)
+	}
+	r.allocs = after.Mallocs - before.Mallocs
+	return r, nil
+}
+
+// driveTable times the drive step of the demo at 12 and 24 cells per
+// radius with each goroutine count for about dur each, and prints a
+// markdown table: wall time per drive period, the share of a step spent
+// outside the fluid kernel and the allocations per step.
+func driveTable(w io.Writer, threads []int, dur time.Duration) error {
+	var rows []driveResult
+	for _, cells := range driveCells {
+		for _, n := range threads {
+			r, err := measureDrive(cells, n, dur)
+			if err != nil {
+				return fmt.Errorf("drive step, %d cells per radius, threads=%d: %w", cells, n, err)
+			}
+			rows = append(rows, r)
+		}
+	}
+	fmt.Fprintln(w, "| case | cells per radius | grid | steps per period | goroutines | timed | wall time per period | outside kernel | allocs per step |")
+	fmt.Fprintln(w, "|---|---:|---|---:|---:|---:|---:|---:|---:|")
+	for _, r := range rows {
+		fmt.Fprintf(w, "| demo | %d | %dx%d | %d | %d | %s | %.2f s | %.1f%% | %.3g |\n",
+			r.cells, r.nz, r.nr, r.stepsPerPeriod, r.threads, r.timed(),
+			r.perPeriod().Seconds(), 100*r.outside(), r.allocsPerStep())
+	}
+	fmt.Fprintln(w)
+	fmt.Fprintf(w, "Drive step: drive.Simulation.Advance on the embedded demo (grid.cells_per_radius as given), after %d warm-up steps;\n", driveWarmUp)
+	fmt.Fprintf(w, "whole periods are timed when about %v holds one, otherwise the steps timed are extrapolated to a period.\n", dur)
+	fmt.Fprintf(w, "Outside kernel: 1 - (time in the fused stream-and-collide kernel, lbm.Solver.KernelTime) / wall time:\n")
+	fmt.Fprintf(w, "halo, boundary links, bodies, dynamics and the mass keeper (no observers). Allocs: heap allocations per step.\n")
+	return nil
+}
