@@ -18,8 +18,9 @@ func cmdVerify(args []string, stdout, stderr io.Writer) error {
 	full := fs.Bool("full", false, "also run the long convergence studies")
 	threads := fs.Int("threads", 0, "goroutines for the solver (0: all cores)")
 	quiet := fs.Bool("quiet", false, "no progress on stderr")
+	single := fs.Bool("float32", false, "store the populations in float32 (solver.precision = \"float32\") in every check")
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: axiswim verify [-full] [-threads N] [-quiet]")
+		fmt.Fprintln(stderr, "usage: axiswim verify [-full] [-float32] [-threads N] [-quiet]")
 		fs.PrintDefaults()
 	}
 	if err := parseFlags(fs, args); err != nil {
@@ -36,7 +37,10 @@ func cmdVerify(args []string, stdout, stderr io.Writer) error {
 	}
 	prog := output.NewProgress(stderr, *quiet, int64(n), "checks", "verify")
 	done := 0
-	_, err := verify.Run(*full, *threads, func(c verify.Check, rows []verify.Row) {
+	if *single {
+		fmt.Fprintln(stdout, "populations stored in float32 (-float32)")
+	}
+	_, err := verify.Run(*full, verify.Options{Threads: *threads, Single: *single}, func(c verify.Check, rows []verify.Row) {
 		done++
 		prog.Set(int64(done), c.Name)
 		if header {

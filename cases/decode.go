@@ -97,6 +97,7 @@ type rawGrid struct {
 type rawSolver struct {
 	Collision *string  `toml:"collision"`
 	Magic     *float64 `toml:"magic"`
+	Precision *string  `toml:"precision"`
 }
 
 type rawRun struct {
@@ -289,6 +290,7 @@ func (r *rawCase) toCase() *Case {
 	if s := r.Solver; s != nil {
 		set(&c.Solver.Collision, s.Collision)
 		set(&c.Solver.Magic, s.Magic)
+		set(&c.Solver.Precision, s.Precision)
 	}
 	if u := r.Run; u != nil {
 		set(&c.Run.Periods, u.Periods)

@@ -102,6 +102,7 @@ func (c *Case) WriteTOML(w io.Writer) error {
 	e.table("solver")
 	e.str("collision", cc.Solver.Collision, `"trt", "mrt" or "bgk"`)
 	e.float("magic", cc.Solver.Magic, "TRT magic parameter")
+	e.str("precision", cc.Solver.Precision, `storage of the populations, "float64" or "float32"`)
 
 	e.table("run")
 	if cc.Run.Periods != 0 {

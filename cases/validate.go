@@ -451,6 +451,12 @@ func (c *Case) validateSolver(v *validator) {
 			fmt.Sprintf("use %q (recommended), %q or %q", CollisionTRT, CollisionMRT, CollisionBGK))
 	}
 	v.positive("solver.magic", c.Solver.Magic, "use 0.1875 (3/16) or 0.25")
+	switch c.Solver.Precision {
+	case PrecisionDouble, PrecisionSingle:
+	default:
+		v.add("solver.precision", c.Solver.Precision, "unknown storage precision",
+			fmt.Sprintf("use %q (default) or %q (half the memory, for large grids)", PrecisionDouble, PrecisionSingle))
+	}
 }
 
 func (c *Case) validateRun(v *validator) {

@@ -36,6 +36,7 @@ func New(c *cases.Case, l *cases.Lattice, threads int) (*Simulation, error) {
 	fl, err := lbm.New(lbm.Config{
 		Nz: l.Nz, Nr: l.Nr, Tau: l.Tau, Collision: col, Magic: c.Solver.Magic,
 		Axisymmetric: true, PeriodicZ: periodic, Threads: threads,
+		Single: c.Solver.Precision == cases.PrecisionSingle,
 	})
 	if err != nil {
 		return nil, fmt.Errorf("set up the lattice: %w", err)

@@ -36,6 +36,13 @@ type Config struct {
 	// (AVX-512, amd64) is available. Both give the same bits; the SIMD one
 	// is faster. Tests use it to compare the two.
 	Portable bool
+
+	// Single stores the populations (their deviations f_i - w_i from the
+	// weights) in float32 instead of float64; every operation is still done
+	// in float64, and values are rounded to float32 only when stored. It
+	// halves the memory and the memory traffic of a step. Results differ
+	// from float64 storage by the float32 rounding of the deviations.
+	Single bool
 }
 
 func (c *Config) check() error {

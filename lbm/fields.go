@@ -87,7 +87,7 @@ func massRows(t *task, lo, hi, _ int) {
 			}
 			var dm float64
 			for i := 0; i < Q; i++ {
-				dm += s.a[i][n]
+				dm += s.pop(i, n)
 			}
 			m += 1 + dm
 		}
@@ -147,21 +147,60 @@ func (s *Solver) SetEquilibrium(fn func(k, j int) (rho, uz, ur float64)) {
 			usq := uz*uz + ur*ur
 			for i := 0; i < Q; i++ {
 				eu := float64(Ez[i])*uz + float64(Er[i])*ur
-				s.a[i][n] = W[i] * ((rho - 1) + rho*(3*eu+4.5*eu*eu-1.5*usq))
+				s.setPop(i, n, W[i]*((rho-1)+rho*(3*eu+4.5*eu*eu-1.5*usq)))
 			}
 		}
 	}
 }
 
 // Population returns the post-collision deviation f_i - w_i at node (k, j).
-func (s *Solver) Population(i, k, j int) float64 { return s.a[i][s.idx(k, j)] }
+func (s *Solver) Population(i, k, j int) float64 { return s.pop(i, s.idx(k, j)) }
+
+// pop returns population i at storage index n of the current
+// (post-collision) lattice.
+func (s *Solver) pop(i, n int) float64 {
+	if s.single {
+		return float64(s.a32[i][n])
+	}
+	return s.a[i][n]
+}
+
+// setPop sets population i at storage index n of the current lattice (with
+// float32 storage, rounded to float32).
+func (s *Solver) setPop(i, n int, v float64) {
+	if s.single {
+		s.a32[i][n] = float32(v)
+	} else {
+		s.a[i][n] = v
+	}
+}
+
+// plane returns a float64 copy of plane i of the current lattice.
+func (s *Solver) plane(i int) []float64 {
+	if s.single {
+		c := make([]float64, len(s.a32[i]))
+		for n, v := range s.a32[i] {
+			c[n] = float64(v)
+		}
+		return c
+	}
+	return append([]float64(nil), s.a[i]...)
+}
+
+// planeLen is the number of values of each plane, halo included.
+func (s *Solver) planeLen() int {
+	if s.single {
+		return len(s.a32[0])
+	}
+	return len(s.a[0])
+}
 
 // State returns a copy of all post-collision deviations, plane by plane, for
 // comparisons and checkpoints.
 func (s *Solver) State() [Q][]float64 {
 	var c [Q][]float64
 	for i := range c {
-		c[i] = append([]float64(nil), s.a[i]...)
+		c[i] = s.plane(i)
 	}
 	return c
 }

@@ -72,8 +72,8 @@ func TestPlanePoiseuilleBGKOffset(t *testing.T) {
 func randomState(s *Solver, seed uint64) {
 	rng := rand.New(rand.NewPCG(seed, 1))
 	for i := 0; i < Q; i++ {
-		for n := range s.a[i] {
-			s.a[i][n] = 1e-3 * (rng.Float64() - 0.5)
+		for n := range s.planeLen() {
+			s.setPop(i, n, 1e-3*(rng.Float64()-0.5))
 		}
 	}
 }

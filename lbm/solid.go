@@ -41,7 +41,7 @@ func (s *Solver) NodeMomentum(k, j int) float64 {
 	n := s.idx(k, j)
 	var mz float64
 	for i := 1; i < Q; i++ {
-		mz += float64(Ez[i]) * s.a[i][n]
+		mz += float64(Ez[i]) * s.pop(i, n)
 	}
 	return 2 * math.Pi * s.rows[j].r * mz
 }
@@ -93,7 +93,7 @@ func (s *Solver) Refill(nodes []Fresh) float64 {
 				if bmirror {
 					src = Mirror[i]
 				}
-				g[i] = s.a[src][bn]
+				g[i] = s.pop(src, bn)
 			}
 			var drho, jz, jr float64
 			for i := 0; i < Q; i++ {
@@ -109,9 +109,8 @@ func (s *Solver) Refill(nodes []Fresh) float64 {
 		}
 		var mz float64
 		for i := 0; i < Q; i++ {
-			v := feqDeviation(i, rho, f.Uz, f.Ur) + g[i]
-			s.a[i][n] = v
-			mz += float64(Ez[i]) * v
+			s.setPop(i, n, feqDeviation(i, rho, f.Uz, f.Ur)+g[i])
+			mz += float64(Ez[i]) * s.pop(i, n) // the stored value
 		}
 		total += 2 * math.Pi * s.rows[f.J].r * mz
 	}
@@ -174,7 +173,7 @@ func (s *Solver) fluidMassRow(j int) float64 {
 		for n := base + seg[0]; n < base+seg[1]; n++ {
 			var d float64
 			for i := 0; i < Q; i++ {
-				d += s.a[i][n]
+				d += s.pop(i, n)
 			}
 			m += 1 + d
 		}
@@ -194,13 +193,20 @@ func shiftRows(t *task, lo, hi, _ int) {
 		base := s.idx(0, j)
 		for _, seg := range s.segs[j] {
 			for i := 0; i < Q; i++ {
-				p := s.a[i][base+seg[0] : base+seg[1]]
-				w := W[i] * drho
-				for x := range p {
-					p[x] += w
+				if s.single {
+					shift(s.a32[i][base+seg[0]:base+seg[1]], W[i]*drho)
+				} else {
+					shift(s.a[i][base+seg[0]:base+seg[1]], W[i]*drho)
 				}
 			}
 		}
+	}
+}
+
+// shift adds w to every value of p (in float64, then stored).
+func shift[T real](p []T, w float64) {
+	for x := range p {
+		p[x] = T(float64(p[x]) + w)
 	}
 }
 
@@ -217,7 +223,7 @@ type LatticeState struct {
 func (s *Solver) Snapshot() LatticeState {
 	st := LatticeState{Steps: s.steps, Solid: append([]bool(nil), s.solid...)}
 	for i := range st.Pops {
-		st.Pops[i] = append([]float64(nil), s.a[i]...)
+		st.Pops[i] = s.plane(i)
 	}
 	return st
 }
@@ -229,10 +235,16 @@ func (s *Solver) Restore(st LatticeState) error {
 		return fmt.Errorf("lbm: restore: state of %d nodes for a lattice of %d", len(st.Solid), len(s.solid))
 	}
 	for i := range st.Pops {
-		if len(st.Pops[i]) != len(s.a[i]) {
-			return fmt.Errorf("lbm: restore: plane %d has %d values, want %d", i, len(st.Pops[i]), len(s.a[i]))
+		if len(st.Pops[i]) != s.planeLen() {
+			return fmt.Errorf("lbm: restore: plane %d has %d values, want %d", i, len(st.Pops[i]), s.planeLen())
 		}
-		copy(s.a[i], st.Pops[i])
+		if s.single {
+			for n, v := range st.Pops[i] {
+				s.a32[i][n] = float32(v) // exact: the values were float32
+			}
+		} else {
+			copy(s.a[i], st.Pops[i])
+		}
 	}
 	s.steps = st.Steps
 	for j := 0; j < s.nr; j++ {

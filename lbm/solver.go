@@ -3,6 +3,7 @@ package lbm
 import (
 	"fmt"
 	"time"
+	"unsafe"
 )
 
 // Solver is a D2Q9 lattice with its populations, boundaries and worker pool.
@@ -50,8 +51,14 @@ func New(cfg Config) (*Solver, error) {
 	}
 	s := &Solver{cfg: cfg, nz: cfg.Nz, nr: cfg.Nr, w: cfg.Nz + 2}
 	size := (cfg.Nz + 2) * (cfg.Nr + 2)
-	s.a = planes(size, 0)
-	s.b = planes(size, planePad/2)
+	s.single = cfg.Single
+	if s.single {
+		s.a32 = planes[float32](size, 0)
+		s.b32 = planes[float32](size, planePad) // planePad float32s: half the stagger in bytes
+	} else {
+		s.a = planes[float64](size, 0)
+		s.b = planes[float64](size, planePad/2)
+	}
 	for i := 0; i < Q; i++ {
 		s.off[i] = Ez[i] + Er[i]*s.w
 	}
@@ -155,8 +162,12 @@ func (s *Solver) String() string {
 	if s.cfg.PeriodicZ {
 		ends = "periodic"
 	}
-	return fmt.Sprintf("%s D2Q9 %dx%d, %s, tau=%.5g, %s ends, %d goroutines",
-		kind, s.nz, s.nr, s.cfg.Collision, s.cfg.Tau, ends, s.Threads())
+	prec := "float64"
+	if s.single {
+		prec = "float32"
+	}
+	return fmt.Sprintf("%s D2Q9 %dx%d, %s, tau=%.5g, %s ends, %s storage, %s kernel, %d goroutines",
+		kind, s.nz, s.nr, s.cfg.Collision, s.cfg.Tau, ends, prec, s.Kernel(), s.Threads())
 }
 
 // planePad is the stagger between consecutive planes, in float64s (384
@@ -168,11 +179,13 @@ func (s *Solver) String() string {
 const planePad = 48
 
 // planes cuts nine planes of size values from one allocation, each starting
-// planePad values later modulo 4 KiB than the one before, shifted by shift.
-func planes(size, shift int) [Q][]float64 {
-	stride := (size+511)/512*512 + planePad
-	back := make([]float64, Q*stride+shift)
-	var p [Q][]float64
+// planePad float64s (384 bytes) later modulo 4 KiB than the one before,
+// shifted by shift values.
+func planes[T real](size, shift int) [Q][]T {
+	pad := planePad * 8 / int(unsafe.Sizeof(T(0)))
+	stride := (size+511)/512*512 + pad
+	back := make([]T, Q*stride+shift)
+	var p [Q][]T
 	for i := range p {
 		o := shift + i*stride
 		p[i] = back[o : o+size : o+size]

@@ -6,7 +6,6 @@ import (
 	"math/cmplx"
 
 	"axiswim/cases"
-	"axiswim/drive"
 )
 
 // FreeSphereResponse returns V/U for a free sphere of density ratio s in a
@@ -49,8 +48,8 @@ func freeSphereCase(s, x float64) *cases.Case {
 // sphere's displacement relative to the container over the last period,
 // divided by that of the drive displacement (e^{+i omega t} convention),
 // and the largest relative speed over (A omega).
-func sphereResponse(c *cases.Case, threads int) (ratio complex128, vmax float64, err error) {
-	sim, err := drive.Setup(c, threads)
+func sphereResponse(c *cases.Case, o Options) (ratio complex128, vmax float64, err error) {
+	sim, err := setup(c, o)
 	if err != nil {
 		return 0, 0, err
 	}
@@ -76,9 +75,9 @@ func sphereResponse(c *cases.Case, threads int) (ratio complex128, vmax float64,
 	return zs / xs, vmax, nil
 }
 
-func checkFreeSphere(threads int) ([]Row, error) {
+func checkFreeSphere(o Options) ([]Row, error) {
 	const s, x = 2.0, 2.0
-	ratio, _, err := sphereResponse(freeSphereCase(s, x), threads)
+	ratio, _, err := sphereResponse(freeSphereCase(s, x), o)
 	if err != nil {
 		return nil, err
 	}
@@ -91,7 +90,7 @@ func checkFreeSphere(threads int) ([]Row, error) {
 		relRow(cs, "relative amplitude / A", cmplx.Abs(ratio), cmplx.Abs(want), 0.03, src),
 		absRow(cs, "relative phase vs drive (deg)", phaseDeg(ratio, 1), phaseDeg(want, 1), 3, "deg", src),
 	}
-	_, vmax, err := sphereResponse(freeSphereCase(1, x), threads)
+	_, vmax, err := sphereResponse(freeSphereCase(1, x), o)
 	if err != nil {
 		return nil, err
 	}
@@ -120,9 +119,9 @@ func lightSphereCase(s float64, coupling string) *cases.Case {
 // lightRun runs a light-sphere case; ok is false if the coupling failed
 // (the run stopped on the sphere-speed guard or produced NaN). zeta is the
 // immediate reaction coefficient of the sphere's links and vol its volume.
-func lightRun(s float64, coupling string, threads int) (ok bool, vmax, zeta, vol float64, err error) {
+func lightRun(s float64, coupling string, o Options) (ok bool, vmax, zeta, vol float64, err error) {
 	c := lightSphereCase(s, coupling)
-	sim, err := drive.Setup(c, threads)
+	sim, err := setup(c, o)
 	if err != nil {
 		return false, 0, 0, 0, err
 	}
@@ -163,7 +162,7 @@ func lightRun(s float64, coupling string, threads int) (ok bool, vmax, zeta, vol
 // the added mass that reacts within a few steps add to zeta; the simple
 // criterion is a lower bound.) The virtual-mass scheme, whose mass m + m_V
 // puts zeta/(m + m_V) far below 2, runs at 0.5 and at 0.1.
-func checkLightSphere(threads int) ([]Row, error) {
+func checkLightSphere(o Options) ([]Row, error) {
 	b2f := func(b bool) float64 {
 		if b {
 			return 1
@@ -172,7 +171,7 @@ func checkLightSphere(threads int) ([]Row, error) {
 	}
 	src := "virtual mass (Schwarz, Kempe & Froehlich 2015); explicit threshold zeta/m = 2 (Ladd & Verberg 2001)"
 	var rows []Row
-	okVM, vmax, zeta, vol, err := lightRun(0.5, cases.CouplingVirtualMass, threads)
+	okVM, vmax, zeta, vol, err := lightRun(0.5, cases.CouplingVirtualMass, o)
 	if err != nil {
 		return nil, err
 	}
@@ -193,7 +192,7 @@ func checkLightSphere(threads int) ([]Row, error) {
 		{4 * sStar, cases.CouplingExplicit, true},
 		{0.7 * sStar, cases.CouplingExplicit, false},
 	} {
-		ok, _, _, _, err := lightRun(c.s, c.coupling, threads)
+		ok, _, _, _, err := lightRun(c.s, c.coupling, o)
 		if err != nil {
 			return nil, err
 		}

@@ -1,13 +1,32 @@
 package verify
 
-import "fmt"
+import (
+	"fmt"
 
-// Check is one verification case. Run returns its rows; threads is the
-// number of goroutines the solver may use (0: all).
+	"axiswim/cases"
+	"axiswim/drive"
+)
+
+// Check is one verification case. Run returns its rows.
 type Check struct {
 	Name string
 	Full bool // only run by `axiswim verify -full`
-	Run  func(threads int) ([]Row, error)
+	Run  func(o Options) ([]Row, error)
+}
+
+// Options are how the checks run the solver.
+type Options struct {
+	Threads int  // goroutines the solver may use (0: all)
+	Single  bool // float32 storage of the populations (lbm.Config.Single)
+}
+
+// setup is drive.Setup with the options: Single sets the case's
+// solver.precision to float32.
+func setup(c *cases.Case, o Options) (*drive.Simulation, error) {
+	if o.Single {
+		c.Solver.Precision = cases.PrecisionSingle
+	}
+	return drive.Setup(c, o.Threads)
 }
 
 // Checks returns every verification case, quick ones first.
@@ -42,13 +61,13 @@ func Checks() []Check {
 
 // Run runs the quick checks, and with full the long ones too, calling each
 // (when not nil) after every check with its rows.
-func Run(full bool, threads int, each func(c Check, rows []Row)) ([]Row, error) {
+func Run(full bool, o Options, each func(c Check, rows []Row)) ([]Row, error) {
 	var all []Row
 	for _, c := range Checks() {
 		if c.Full && !full {
 			continue
 		}
-		rows, err := c.Run(threads)
+		rows, err := c.Run(o)
 		if err != nil {
 			return all, fmt.Errorf("verify %s: %w", c.Name, err)
 		}

@@ -16,8 +16,8 @@ func sloshing(s *lbm.Solver, n int) {
 	s.SetForce(g0*math.Sin(ph), 0.5*g0*math.Cos(ph))
 }
 
-func checkMassPlanar(threads int) ([]Row, error) {
-	s, err := lbm.New(lbm.Config{Nz: 64, Nr: 32, Tau: 0.8, Threads: threads})
+func checkMassPlanar(o Options) ([]Row, error) {
+	s, err := lbm.New(lbm.Config{Nz: 64, Nr: 32, Tau: 0.8, Threads: o.Threads, Single: o.Single})
 	if err != nil {
 		return nil, err
 	}
@@ -35,8 +35,8 @@ func checkMassPlanar(threads int) ([]Row, error) {
 // mass3DDrift runs the sloshing closed cylinder of n x n/2 nodes for a
 // fixed physical time in diffusive scaling and returns the relative change
 // of the 3D mass.
-func mass3DDrift(nz, threads int) (float64, error) {
-	s, err := lbm.New(lbm.Config{Nz: nz, Nr: nz / 2, Tau: 0.8, Axisymmetric: true, Threads: threads})
+func mass3DDrift(nz int, o Options) (float64, error) {
+	s, err := lbm.New(lbm.Config{Nz: nz, Nr: nz / 2, Tau: 0.8, Axisymmetric: true, Threads: o.Threads, Single: o.Single})
 	if err != nil {
 		return 0, err
 	}
@@ -61,12 +61,12 @@ func mass3DDrift(nz, threads int) (float64, error) {
 	return worst, nil
 }
 
-func checkMass3D(threads int) ([]Row, error) {
-	d32, err := mass3DDrift(32, threads)
+func checkMass3D(o Options) ([]Row, error) {
+	d32, err := mass3DDrift(32, o)
 	if err != nil {
 		return nil, err
 	}
-	d64, err := mass3DDrift(64, threads)
+	d64, err := mass3DDrift(64, o)
 	if err != nil {
 		return nil, err
 	}
@@ -78,12 +78,12 @@ func checkMass3D(threads int) ([]Row, error) {
 	}, nil
 }
 
-func checkDeterminism(int) ([]Row, error) {
+func checkDeterminism(o Options) ([]Row, error) {
 	var rows []Row
 	for _, col := range []lbm.Collision{lbm.TRT, lbm.MRT} {
 		var ref [lbm.Q][]float64
 		for _, th := range []int{1, 2, 4} {
-			s, err := lbm.New(lbm.Config{Nz: 37, Nr: 23, Tau: 0.7, Collision: col, Axisymmetric: true, Threads: th})
+			s, err := lbm.New(lbm.Config{Nz: 37, Nr: 23, Tau: 0.7, Collision: col, Axisymmetric: true, Threads: th, Single: o.Single})
 			if err != nil {
 				return nil, err
 			}
@@ -108,12 +108,12 @@ func checkDeterminism(int) ([]Row, error) {
 
 // checkDeterminismBodies repeats the determinism check with a sphere
 // oscillating across cells (links, covering, refilling, forces).
-func checkDeterminismBodies(int) ([]Row, error) {
+func checkDeterminismBodies(o Options) ([]Row, error) {
 	var ref [lbm.Q][]float64
 	var refForce float64
 	var rows []Row
 	for _, th := range []int{1, 2, 4} {
-		fl, bs, err := tube(48, 19, 0.7, 22.3, 6.4, 0, th)
+		fl, bs, err := tube(48, 19, 0.7, 22.3, 6.4, 0, Options{Threads: th, Single: o.Single})
 		if err != nil {
 			return nil, err
 		}

@@ -19,15 +19,15 @@ const (
 )
 
 // pipe makes a periodic axisymmetric pipe of radius R nodes (Nz = 2).
-func pipe(R int, tau float64, col lbm.Collision, threads int) (*lbm.Solver, error) {
+func pipe(R int, tau float64, col lbm.Collision, o Options) (*lbm.Solver, error) {
 	return lbm.New(lbm.Config{Nz: 2, Nr: R, Tau: tau, Collision: col,
-		Axisymmetric: true, PeriodicZ: true, Threads: threads})
+		Axisymmetric: true, PeriodicZ: true, Threads: o.Threads, Single: o.Single})
 }
 
 // poiseuilleError runs body-force-driven pipe flow to steady state and
 // returns the r-weighted relative L2 error against G(R^2 - r^2)/(4 nu).
-func poiseuilleError(R int, tau float64, col lbm.Collision, threads int) (float64, error) {
-	s, err := pipe(R, tau, col, threads)
+func poiseuilleError(R int, tau float64, col lbm.Collision, o Options) (float64, error) {
+	s, err := pipe(R, tau, col, o)
 	if err != nil {
 		return 0, err
 	}
@@ -52,13 +52,13 @@ func poiseuilleError(R int, tau float64, col lbm.Collision, threads int) (float6
 	return math.Sqrt(num / den), nil
 }
 
-func checkPoiseuille(threads int) ([]Row, error) {
+func checkPoiseuille(o Options) ([]Row, error) {
 	var rows []Row
 	for _, c := range []struct {
 		R   int
 		tol float64
 	}{{10, 0.01}, {20, 0.003}} {
-		e, err := poiseuilleError(c.R, 0.8, lbm.TRT, threads)
+		e, err := poiseuilleError(c.R, 0.8, lbm.TRT, o)
 		if err != nil {
 			return nil, err
 		}
@@ -67,11 +67,11 @@ func checkPoiseuille(threads int) ([]Row, error) {
 	}
 	// BGK at tau = 0.8 is not exact (its wall position depends on tau):
 	// show second-order convergence.
-	e10, err := poiseuilleError(10, 0.8, lbm.BGK, threads)
+	e10, err := poiseuilleError(10, 0.8, lbm.BGK, o)
 	if err != nil {
 		return nil, err
 	}
-	e20, err := poiseuilleError(20, 0.8, lbm.BGK, threads)
+	e20, err := poiseuilleError(20, 0.8, lbm.BGK, o)
 	if err != nil {
 		return nil, err
 	}
@@ -81,9 +81,9 @@ func checkPoiseuille(threads int) ([]Row, error) {
 	return rows, nil
 }
 
-func checkStartup(threads int) ([]Row, error) {
+func checkStartup(o Options) ([]Row, error) {
 	const R = 20
-	s, err := pipe(R, 0.8, lbm.TRT, threads)
+	s, err := pipe(R, 0.8, lbm.TRT, o)
 	if err != nil {
 		return nil, err
 	}
@@ -128,9 +128,9 @@ func checkStartup(threads int) ([]Row, error) {
 // complex amplitudes of the velocity of the first node and of the flow
 // rate, and the maximum over the period of the r-weighted L2 error norm
 // normalised by the maximum norm of the exact solution.
-func womersleyRun(R int, alpha float64, threads int) (uc, q complex128, norm float64, w Womersley, err error) {
+func womersleyRun(R int, alpha float64, o Options) (uc, q complex128, norm float64, w Womersley, err error) {
 	const tau = 0.8
-	s, err := pipe(R, tau, lbm.TRT, threads)
+	s, err := pipe(R, tau, lbm.TRT, o)
 	if err != nil {
 		return
 	}
@@ -182,12 +182,12 @@ func phaseDeg(z, ref complex128) float64 {
 	return cmplx.Phase(z/ref) * 180 / math.Pi
 }
 
-func checkWomersley(threads int) ([]Row, error) {
+func checkWomersley(o Options) ([]Row, error) {
 	var rows []Row
 	for _, alpha := range []float64{3, 8} {
 		var norms [3]float64
 		for i, R := range []int{10, 20, 40} {
-			uc, q, norm, w, err := womersleyRun(R, alpha, threads)
+			uc, q, norm, w, err := womersleyRun(R, alpha, o)
 			if err != nil {
 				return nil, err
 			}
@@ -213,14 +213,14 @@ func checkWomersley(threads int) ([]Row, error) {
 }
 
 // checkWomersleyFine extends the convergence study to R = 80.
-func checkWomersleyFine(threads int) ([]Row, error) {
+func checkWomersleyFine(o Options) ([]Row, error) {
 	var rows []Row
 	for _, alpha := range []float64{3, 8} {
-		_, _, n40, _, err := womersleyRun(40, alpha, threads)
+		_, _, n40, _, err := womersleyRun(40, alpha, o)
 		if err != nil {
 			return nil, err
 		}
-		_, _, n80, _, err := womersleyRun(80, alpha, threads)
+		_, _, n80, _, err := womersleyRun(80, alpha, o)
 		if err != nil {
 			return nil, err
 		}
@@ -230,7 +230,7 @@ func checkWomersleyFine(threads int) ([]Row, error) {
 	return rows, nil
 }
 
-func checkKelvin(int) ([]Row, error) {
+func checkKelvin(Options) ([]Row, error) {
 	// Reference values: the defining series of ber and bei (Abramowitz &
 	// Stegun 1972, eq. 9.9.10) summed in exact rational arithmetic and
 	// rounded to 15 digits. CHECKS.md 2c lists the same values to 12

@@ -6,7 +6,6 @@ import (
 	"math/cmplx"
 
 	"axiswim/cases"
-	"axiswim/drive"
 )
 
 // checkShakenClosed runs the embedded shaken-cell case (a closed container
@@ -14,7 +13,7 @@ import (
 // The frame force is absorbed into the modified pressure, so the liquid
 // must stay at rest: CHECKS.md 2d asks for a residual speed of at most
 // 1e-6 of A omega.
-func checkShakenClosed(threads int) ([]Row, error) {
+func checkShakenClosed(o Options) ([]Row, error) {
 	src, err := cases.Get("shaken-cell")
 	if err != nil {
 		return nil, err
@@ -24,7 +23,7 @@ func checkShakenClosed(threads int) ([]Row, error) {
 		return nil, err
 	}
 	c.Run.Periods = 3
-	sim, err := drive.Setup(c, threads)
+	sim, err := setup(c, o)
 	if err != nil {
 		return nil, err
 	}
@@ -47,7 +46,7 @@ func checkShakenClosed(threads int) ([]Row, error) {
 // then acts on the liquid, and the flow relative to the wall is Womersley
 // flow driven by rho A omega^2 sin(omega t) (CHECKS.md 2d). The case is
 // chosen at alpha = R sqrt(omega/nu) = 4 with R = 20 cells.
-func checkShakenPeriodic(threads int) ([]Row, error) {
+func checkShakenPeriodic(o Options) ([]Row, error) {
 	const (
 		rho, mu = 1000.0, 0.004 // nu = 4e-6 m^2/s
 		R       = 0.002         // m
@@ -63,7 +62,7 @@ func checkShakenPeriodic(threads int) ([]Row, error) {
 	c.Grid = cases.Grid{CellSize: R / 20, Tau: 0.8}
 	c.Run.Periods = 1
 	c.FillDefaults()
-	sim, err := drive.Setup(c, threads)
+	sim, err := setup(c, o)
 	if err != nil {
 		return nil, err
 	}

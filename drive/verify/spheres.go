@@ -22,8 +22,8 @@ const (
 
 // tube makes a closed axisymmetric tube of nz x nr nodes holding one sphere
 // of radius a centred at z0, with wall velocity v.
-func tube(nz, nr int, tau, z0, a, v float64, threads int) (*lbm.Solver, *drive.Bodies, error) {
-	fl, err := lbm.New(lbm.Config{Nz: nz, Nr: nr, Tau: tau, Axisymmetric: true, Threads: threads})
+func tube(nz, nr int, tau, z0, a, v float64, o Options) (*lbm.Solver, *drive.Bodies, error) {
+	fl, err := lbm.New(lbm.Config{Nz: nz, Nr: nr, Tau: tau, Axisymmetric: true, Threads: o.Threads, Single: o.Single})
 	if err != nil {
 		return nil, nil, err
 	}
@@ -40,9 +40,9 @@ func tube(nz, nr int, tau, z0, a, v float64, threads int) (*lbm.Solver, *drive.B
 // not remove) around a sphere at an off-lattice position. The ring-weighted
 // link sum must vanish to round-off: at most 1e-12 of the Stokes drag
 // 6 pi mu a U at Mach 0.01.
-func checkUniformPressure(threads int) ([]Row, error) {
+func checkUniformPressure(o Options) ([]Row, error) {
 	const a, tau = 7.3, 0.8
-	fl, bs, err := tube(48, 20, tau, 20.37, a, 0, threads)
+	fl, bs, err := tube(48, 20, tau, 20.37, a, 0, o)
 	if err != nil {
 		return nil, err
 	}
@@ -72,7 +72,7 @@ type translation struct {
 // tube's ends are 2.5 R beyond the sphere's path: the disturbance of a
 // sphere in a tube decays like exp(-4.2 z/R) or faster [M: first Stokes
 // eigenvalue of a tube from memory], so they cost well under 0.1%.
-func translate(a, lambda float64, threads int) (translation, error) {
+func translate(a, lambda float64, o Options) (translation, error) {
 	const tau = 1.0 // TRT at Lambda = 3/16: the walls do not move with tau
 	R := int(math.Round(a / lambda))
 	nu := (tau - 0.5) / 3
@@ -81,7 +81,7 @@ func translate(a, lambda float64, threads int) (translation, error) {
 	travel := U * float64(steps)
 	L := int(5*float64(R) + 2*a + travel + 4)
 	z0 := float64(L)/2 - travel/2 + 0.123 // off the lattice
-	fl, bs, err := tube(L, R, tau, z0, a, U, threads)
+	fl, bs, err := tube(L, R, tau, z0, a, U, o)
 	if err != nil {
 		return translation{}, err
 	}
@@ -117,8 +117,8 @@ func translate(a, lambda float64, threads int) (translation, error) {
 	return t, nil
 }
 
-func translationRows(a, lambda, tol float64, threads int) ([]Row, translation, error) {
-	t, err := translate(a, lambda, threads)
+func translationRows(a, lambda, tol float64, o Options) ([]Row, translation, error) {
+	t, err := translate(a, lambda, o)
 	if err != nil {
 		return nil, t, err
 	}
@@ -133,10 +133,10 @@ func translationRows(a, lambda, tol float64, threads int) ([]Row, translation, e
 	return rows, t, nil
 }
 
-func checkTranslating(threads int) ([]Row, error) {
+func checkTranslating(o Options) ([]Row, error) {
 	var rows []Row
 	for _, lam := range []float64{0.2, 0.4} {
-		r, _, err := translationRows(10, lam, 0.02, threads)
+		r, _, err := translationRows(10, lam, 0.02, o)
 		if err != nil {
 			return nil, err
 		}
@@ -147,14 +147,14 @@ func checkTranslating(threads int) ([]Row, error) {
 
 // checkTranslatingFine adds 20 cells per radius (1%) and the observed order
 // of the error against Haberman & Sayre between 10 and 20 cells.
-func checkTranslatingFine(threads int) ([]Row, error) {
+func checkTranslatingFine(o Options) ([]Row, error) {
 	var rows []Row
 	for _, lam := range []float64{0.2, 0.4} {
-		_, t10, err := translationRows(10, lam, 0.02, threads)
+		_, t10, err := translationRows(10, lam, 0.02, o)
 		if err != nil {
 			return nil, err
 		}
-		r, t20, err := translationRows(20, lam, 0.01, threads)
+		r, t20, err := translationRows(20, lam, 0.01, o)
 		if err != nil {
 			return nil, err
 		}
@@ -179,7 +179,7 @@ func checkTranslatingFine(threads int) ([]Row, error) {
 // coefficient F/U (lattice units) from the last of four periods, the
 // reference impedance for an unbounded fluid and the Stokes-layer
 // thickness in cells.
-func oscillate(a, aOverDelta, lambda float64, threads int) (z, ref complex128, delta float64, err error) {
+func oscillate(a, aOverDelta, lambda float64, o Options) (z, ref complex128, delta float64, err error) {
 	R := int(math.Round(a / lambda))
 	L := 6 * R
 	delta = a / aOverDelta
@@ -197,7 +197,7 @@ func oscillate(a, aOverDelta, lambda float64, threads int) (z, ref complex128, d
 	U := X0 * omega
 	z0 := float64(L)/2 + 0.217
 	vel := func(t float64) float64 { return U * math.Cos(omega*t) }
-	fl, bs, err := tube(L, R, tau, z0, a, vel(0.5), threads)
+	fl, bs, err := tube(L, R, tau, z0, a, vel(0.5), o)
 	if err != nil {
 		return 0, 0, 0, err
 	}
@@ -221,14 +221,14 @@ func oscillate(a, aOverDelta, lambda float64, threads int) (z, ref complex128, d
 	return z, ref, delta, nil
 }
 
-func checkOscillating(threads int) ([]Row, error) {
+func checkOscillating(o Options) ([]Row, error) {
 	var rows []Row
 	for _, c := range []struct{ a, aod, lambda float64 }{
 		{8, 1, 0.125}, // delta = 8 cells; (R - a)/delta = 7: Stokeslet far field screened
 		{8, 2, 0.2},   // delta = 4 cells
 		{15, 5, 0.2},  // delta = 3 cells, the least CHECKS.md 4d allows
 	} {
-		z, ref, delta, err := oscillate(c.a, c.aod, c.lambda, threads)
+		z, ref, delta, err := oscillate(c.a, c.aod, c.lambda, o)
 		if err != nil {
 			return nil, err
 		}
@@ -246,7 +246,7 @@ func checkOscillating(threads int) ([]Row, error) {
 // over the last diameter of travel and the recirculation length behind the
 // sphere in diameters (0 if the wake is attached). The tube's far end stays
 // 2R + 7 diameters ahead of the sphere.
-func wakeRun(a, lambda, re, travel float64, threads int) (cd, ls float64, err error) {
+func wakeRun(a, lambda, re, travel float64, o Options) (cd, ls float64, err error) {
 	const U = 0.05
 	nu := U * 2 * a / re
 	tau := 3*nu + 0.5
@@ -254,7 +254,7 @@ func wakeRun(a, lambda, re, travel float64, threads int) (cd, ls float64, err er
 	dist := travel * 2 * a
 	L := int(dist + 3*float64(R) + 2*a + 14*a)
 	z0 := float64(R) + a + 0.31
-	fl, bs, err := tube(L, R, tau, z0, a, U, threads)
+	fl, bs, err := tube(L, R, tau, z0, a, U, o)
 	if err != nil {
 		return 0, 0, err
 	}
@@ -307,10 +307,10 @@ const (
 // raises the drag by about 1.4% at Re = 20 (measured against lambda = 0.05)
 // and less at higher Re. Re = 100 needs 12 cells per radius: its boundary
 // layer is about a/sqrt(Re) thick (C_D error 3.9% at 8 cells, 2.8% at 10).
-func checkWake(threads int) ([]Row, error) {
+func checkWake(o Options) ([]Row, error) {
 	var rows []Row
 	for _, c := range []struct{ a, re float64 }{{8, 20}, {8, 50}, {12, 100}} {
-		cd, ls, err := wakeRun(c.a, 0.1, c.re, 15, threads)
+		cd, ls, err := wakeRun(c.a, 0.1, c.re, 15, o)
 		if err != nil {
 			return nil, err
 		}

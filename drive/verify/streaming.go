@@ -17,7 +17,7 @@ import (
 // points two radii from the centre: on the axis (mean u_z, positive away
 // from the sphere, averaged over the points ahead and behind) and in the
 // equatorial plane (mean u_r, positive away).
-func streamingRun(eps float64, threads int) (axial, equatorial float64, err error) {
+func streamingRun(eps float64, o Options) (axial, equatorial float64, err error) {
 	const a, m2, periods, avg = 21.0, 100.0, 12, 4
 	R := int(4 * a)
 	L := int(8 * a)
@@ -26,7 +26,7 @@ func streamingRun(eps float64, threads int) (axial, equatorial float64, err erro
 	omega = 2 * math.Pi / float64(T)
 	nu := omega * a * a / m2
 	z0 := float64(L)/2 + 0.27
-	fl, err := lbm.New(lbm.Config{Nz: L, Nr: R, Tau: 3*nu + 0.5, Axisymmetric: true, Threads: threads})
+	fl, err := lbm.New(lbm.Config{Nz: L, Nr: R, Tau: 3*nu + 0.5, Axisymmetric: true, Threads: o.Threads, Single: o.Single})
 	if err != nil {
 		return 0, 0, err
 	}
@@ -63,12 +63,12 @@ func streamingRun(eps float64, threads int) (axial, equatorial float64, err erro
 // Q. J. Mech. Appl. Math. 19, 461; Riley 2001, Annu. Rev. Fluid Mech. 33,
 // 43 [M for details]; CHECKS.md 6), and it scales as epsilon^2: the ratio
 // for epsilon = 0.1 and 0.05 is 4 within 5% (issue 5).
-func checkStreaming(threads int) ([]Row, error) {
-	ax1, eq1, err := streamingRun(0.05, threads)
+func checkStreaming(o Options) ([]Row, error) {
+	ax1, eq1, err := streamingRun(0.05, o)
 	if err != nil {
 		return nil, err
 	}
-	ax2, eq2, err := streamingRun(0.1, threads)
+	ax2, eq2, err := streamingRun(0.1, o)
 	if err != nil {
 		return nil, err
 	}

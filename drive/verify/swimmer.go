@@ -39,8 +39,8 @@ func twoSphereCase(m2, amp, rho1, rho2, stiffness float64, periods int) *cases.C
 // swim runs a case and returns the stroboscopic centroids (index 0 at the
 // start), the stroke amplitude (half the range of the spring extension
 // over the last period) and the period.
-func swim(c *cases.Case, threads int) (cent []float64, stroke, T float64, err error) {
-	sim, err := drive.Setup(c, threads)
+func swim(c *cases.Case, o Options) (cent []float64, stroke, T float64, err error) {
+	sim, err := setup(c, o)
 	if err != nil {
 		return nil, 0, 0, err
 	}
@@ -70,13 +70,13 @@ func swim(c *cases.Case, threads int) (cent []float64, stroke, T float64, err er
 // above 0.5 (weak-inertia theory expects about 1 or more: Lauga 2007,
 // Phys. Fluids 19, 061703; Gonzalez-Rodriguez & Lauga 2009, CHECKS.md
 // 8.2-8.3 [C abstracts]).
-func checkScallop(threads int) ([]Row, error) {
+func checkScallop(o Options) ([]Row, error) {
 	m2s := []float64{1, 0.3, 0.1}
 	var ratio []float64
 	var rows []Row
 	for _, m2 := range m2s {
 		c := twoSphereCase(m2, 0.35e-3, 1500, 600, 0.02, 8)
-		cent, stroke, _, err := swim(c, threads)
+		cent, stroke, _, err := swim(c, o)
 		if err != nil {
 			return nil, fmt.Errorf("M^2=%g: %w", m2, err)
 		}
@@ -116,7 +116,7 @@ func checkScallop(threads int) ([]Row, error) {
 // 2e-8 of A omega, still far inside CHECKS.md's tolerance of 1e-3 for
 // swimmer symmetry and thousands of times below the demo's speed; the
 // second row holds it to that tolerance.
-func checkSymmetric(threads int) ([]Row, error) {
+func checkSymmetric(o Options) ([]Row, error) {
 	var rows []Row
 	for _, c := range []struct {
 		amp, tol float64
@@ -130,7 +130,7 @@ func checkSymmetric(threads int) ([]Row, error) {
 		cs.Spheres[0].Z, cs.Spheres[1].Z = -1.4e-3, 1.4e-3
 		cs.Springs[0].RestLength = 2.8e-3
 		cs.Grid.CellsPerRadius = 7
-		cent, _, T, err := swim(cs, threads)
+		cent, _, T, err := swim(cs, o)
 		if err != nil {
 			return nil, err
 		}
@@ -149,13 +149,13 @@ func checkSymmetric(threads int) ([]Row, error) {
 // case is chosen where the model's neglects are small: a/delta = 2.5, so
 // the spheres' Stokes layers are 3.6 delta apart and the container wall
 // 10 delta away, and a stiff spring (resonance at 4 times the drive).
-func checkModel(threads int) ([]Row, error) {
+func checkModel(o Options) ([]Row, error) {
 	c := twoSphereCase(12.5, 0.1e-3, 1500, 600, 0.1, 6)
 	m, err := drive.Model(c)
 	if err != nil {
 		return nil, err
 	}
-	sim, err := drive.Setup(c, threads)
+	sim, err := setup(c, o)
 	if err != nil {
 		return nil, err
 	}
@@ -188,7 +188,7 @@ func checkModel(threads int) ([]Row, error) {
 // bounded, of order (omega dt)^2/8 = 3e-7 at a spring frequency of 4000
 // steps per period, a drive period's worth of steps, so it must stay below
 // 1e-6 over 10^4 steps (issue 4).
-func checkEnergy(int) ([]Row, error) {
+func checkEnergy(Options) ([]Row, error) {
 	m1, m2 := 3.0, 1.2
 	mu := m1 * m2 / (m1 + m2)
 	omega := 2 * math.Pi / 4000
@@ -221,7 +221,7 @@ func checkEnergy(int) ([]Row, error) {
 
 // checkDemoResolution: the demo's mean speed at its own resolution and at
 // 1.5 times it differ by less than 10% (issue 4).
-func checkDemoResolution(threads int) ([]Row, error) {
+func checkDemoResolution(o Options) ([]Row, error) {
 	src, err := cases.Get("demo")
 	if err != nil {
 		return nil, err
@@ -235,7 +235,7 @@ func checkDemoResolution(threads int) ([]Row, error) {
 		}
 		c.Grid.CellsPerRadius = int(math.Round(float64(c.Grid.CellsPerRadius) * scale))
 		cells = append(cells, c.Grid.CellsPerRadius)
-		cent, _, T, err := swim(c, threads)
+		cent, _, T, err := swim(c, o)
 		if err != nil {
 			return nil, err
 		}

@@ -65,7 +65,7 @@ func TestChecks(t *testing.T) {
 			continue
 		}
 		t.Run(c.Name, func(t *testing.T) {
-			rows, err := c.Run(0)
+			rows, err := c.Run(Options{})
 			if err != nil {
 				t.Fatal(err)
 			}
