@@ -56,6 +56,7 @@ func Checks() []Check {
 		{Name: "womersley-fine", Full: true, Run: checkWomersleyFine},
 		{Name: "sphere-translating-fine", Full: true, Run: checkTranslatingFine},
 		{Name: "demo-resolution", Full: true, Run: checkDemoResolution},
+		{Name: "demo-float32", Full: true, Run: checkDemoPrecision},
 	}
 }
 

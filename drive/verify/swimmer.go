@@ -249,3 +249,30 @@ func checkDemoResolution(o Options) ([]Row, error) {
 			"resolution independence within 10% (issue 4)"),
 	}, nil
 }
+
+// checkDemoPrecision: the demo's mean speed with float32 storage of the
+// populations is within 1% of the speed with float64 storage (issue 7: the
+// float32 option is validated against float64 on the demo).
+func checkDemoPrecision(o Options) ([]Row, error) {
+	src, err := cases.Get("demo")
+	if err != nil {
+		return nil, err
+	}
+	var speeds []float64
+	for _, prec := range []string{cases.PrecisionDouble, cases.PrecisionSingle} {
+		c, err := cases.Parse("demo", src)
+		if err != nil {
+			return nil, err
+		}
+		c.Solver.Precision = prec
+		cent, _, T, err := swim(c, Options{Threads: o.Threads, Single: prec == cases.PrecisionSingle})
+		if err != nil {
+			return nil, err
+		}
+		speeds = append(speeds, drive.SwimmingSpeed(cent, T, int(math.Ceil(2*c.Shaking.RampPeriods))).Mean)
+	}
+	return []Row{
+		relRow("demo", "mean speed (m/s), float32 vs float64 storage", speeds[1], speeds[0], 0.01,
+			"float32 storage validated against float64 within 1% (issue 7)"),
+	}, nil
+}
