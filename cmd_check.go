@@ -117,6 +117,11 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 	est := time.Duration(per * float64(l.Steps) * float64(time.Second))
 	fmt.Fprintf(stdout, "  run time        about %s on %d goroutine(s) (%.3g MLUPS over a %d-step sample)\n",
 		roundDuration(est), sim.Fluid.Threads(), float64(l.Nz*l.Nr)/per/1e6, n)
+	prec := "float64"
+	if l.Single {
+		prec = "float32"
+	}
+	fmt.Fprintf(stdout, "  kernel          %s, %s storage of the populations\n", sim.Fluid.Kernel(), prec)
 
 	if len(l.Warnings) > 0 {
 		fmt.Fprintln(stdout, "\nwarnings:")

@@ -7,22 +7,29 @@ import (
 	"strings"
 )
 
-// Bytes per lattice node: two sets of nine float64 populations plus about
-// ten float64 fields (density, velocity, forces, flags and the like).
-const bytesPerNode = (2*9 + 10) * 8
+// Bytes per lattice node: two sets of nine populations (float64, or
+// float32 with solver.precision = "float32") plus about ten float64 fields
+// (density, velocity, forces, flags and the like).
+const (
+	bytesPerNode       = (2*9 + 10) * 8
+	bytesPerNodeSingle = 2*9*4 + 10*8
+)
 
 // fallbackMemoryLimit is used when /proc/meminfo cannot be read.
 const fallbackMemoryLimit = 16 << 30
 
 // memoryBytes estimates the memory of an nz x nr grid with one ghost layer
 // on each side.
-func memoryBytes(nz, nr float64) float64 {
+func memoryBytes(nz, nr float64, single bool) float64 {
+	if single {
+		return bytesPerNodeSingle * (nz + 2) * (nr + 2)
+	}
 	return bytesPerNode * (nz + 2) * (nr + 2)
 }
 
 // MemoryBytes is the estimated memory of the lattice, in bytes.
 func (l *Lattice) MemoryBytes() int64 {
-	return int64(memoryBytes(float64(l.Nz), float64(l.Nr)))
+	return int64(memoryBytes(float64(l.Nz), float64(l.Nr), l.Single))
 }
 
 // MemoryLimit returns the largest grid memory Validate accepts, in bytes:

@@ -51,6 +51,7 @@ const (
 type Lattice struct {
 	Dx, Dt float64 // cell size (m) and time step (s)
 	Nz, Nr int     // cells along z and across the radius
+	Single bool    // float32 storage of the populations (solver.precision)
 	Tau    float64 // relaxation time τ⁺ = 3 NuL + 1/2
 	NuL    float64 // lattice kinematic viscosity ν Δt/Δx²
 	// NuLMax is the largest NuL the upper limits (Mach, acoustic, tau_max)
@@ -161,6 +162,7 @@ func Resolve(c *Case) (*Lattice, error) {
 	g, _ := c.grid() // Validate has checked it
 	nu := c.Fluid.Viscosity / c.Fluid.Density
 	l := &Lattice{
+		Single:  c.Solver.Precision == PrecisionSingle,
 		Dx:      g.dx,
 		Nz:      int(g.nz),
 		Nr:      int(g.nr),

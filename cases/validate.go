@@ -433,7 +433,7 @@ func (c *Case) validateGrid(v *validator) {
 			"use smaller cells: at least 3 across the container radius")
 		return
 	}
-	need := memoryBytes(grid.nz, grid.nr)
+	need := memoryBytes(grid.nz, grid.nr, c.Solver.Precision == PrecisionSingle)
 	limit, source := MemoryLimit()
 	if need > float64(limit) {
 		v.add(key, value,
