@@ -16,10 +16,17 @@ import (
 // fields and summary, byte for byte, as a run that never stopped (apart
 // from the wall time and the speed of the run in the summary).
 func TestResumeBitForBit(t *testing.T) {
+	for _, prec := range []string{cases.PrecisionDouble, cases.PrecisionSingle} {
+		t.Run(prec, func(t *testing.T) { testResume(t, prec) })
+	}
+}
+
+func testResume(t *testing.T, precision string) {
 	c, err := cases.Load("../testdata/small-swimmer.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
+	c.Solver.Precision = precision
 	l, err := cases.Resolve(c)
 	if err != nil {
 		t.Fatal(err)

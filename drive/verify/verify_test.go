@@ -85,6 +85,36 @@ func TestChecks(t *testing.T) {
 	}
 }
 
+// TestChecksFloat32 runs a cheap selection of the quick checks with float32
+// storage of the populations (Options.Single, `axiswim verify -float32`
+// runs them all): the same rows and tolerances must pass, but for the
+// exact-conservation bound, which becomes float32's round-off.
+func TestChecksFloat32(t *testing.T) {
+	want := map[string]bool{"hagen-poiseuille": true, "mass-planar": true, "determinism-moving-sphere": true,
+		"sphere-oscillating": true, "free-sphere": true, "model-vs-simulation": true}
+	for _, c := range Checks() {
+		if !want[c.Name] {
+			continue
+		}
+		delete(want, c.Name)
+		t.Run(c.Name, func(t *testing.T) {
+			rows, err := c.Run(Options{Single: true})
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, r := range rows {
+				if !r.Pass {
+					t.Errorf("float32: %s: %s = %g, reference %g, error %g > tolerance %g (%s)",
+						r.Case, r.Quantity, r.Computed, r.Reference, r.Error, r.Tolerance, r.Source)
+				}
+			}
+		})
+	}
+	for name := range want {
+		t.Errorf("no check named %q", name)
+	}
+}
+
 // TestReferenceFreeSphere checks FreeSphereResponse against the table of
 // CHECKS.md 4c ([D], 4 figures and 0.1 degree).
 func TestReferenceFreeSphere(t *testing.T) {
