@@ -15,12 +15,30 @@ type kernel struct {
 	collision lbm.Collision
 	axisym    bool
 	portable  bool // the portable Go kernel even where SIMD is available
+	single    bool // float32 storage of the populations
+}
+
+// bytes is the DRAM traffic of one node update of k (see bytesPerUpdate).
+func (k kernel) bytes() int {
+	if k.single {
+		return bytesPerUpdate / 2
+	}
+	return bytesPerUpdate
+}
+
+// latticeBytes is the size of the two population lattices of k on g.
+func (k kernel) latticeBytes(g grid) int {
+	if k.single {
+		return g.latticeBytes() / 2
+	}
+	return g.latticeBytes()
 }
 
 // kernels are the configurations measured, in table order.
 var kernels = []kernel{
 	{name: "planar BGK", collision: lbm.BGK, axisym: false},
 	{name: "axisymmetric TRT", collision: lbm.TRT, axisym: true},
+	{name: "axisymmetric TRT, float32", collision: lbm.TRT, axisym: true, single: true},
 }
 
 // portableKernels are the same configurations on the portable Go kernel
@@ -103,6 +121,7 @@ func newSolver(k kernel, g grid, threads int) (*lbm.Solver, error) {
 		PeriodicZ:    true,
 		Threads:      threads,
 		Portable:     k.portable,
+		Single:       k.single,
 	})
 	if err != nil {
 		return nil, err

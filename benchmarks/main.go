@@ -120,23 +120,23 @@ func run(w io.Writer, cfg runConfig) error {
 	fmt.Fprintln(w, "|---|---:|---|---:|---:|---:|---:|---:|---:|")
 	for _, r := range rows {
 		fits := ""
-		if llc > 0 && r.g.latticeBytes() <= llc {
+		if llc > 0 && r.k.latticeBytes(r.g) <= llc {
 			fits = " *"
 		}
 		b := bw[r.n]
-		limit := b / bytesPerUpdate / 1e6
+		limit := b / float64(r.k.bytes()) / 1e6
 		scaling := "-"
 		if r.n > 1 && r.mlup1 > 0 {
 			scaling = fmt.Sprintf("%.0f%%", 100*r.res.mlups/(float64(r.res.threads)*r.mlup1))
 		}
 		fmt.Fprintf(w, "| %s | %s%s | %s | %d | %.1f | %.1f | %.1f | %.0f%% | %s |\n",
-			r.g, mib(r.g.latticeBytes()), fits, r.k.name, r.res.threads, r.res.mlups,
+			r.g, mib(r.k.latticeBytes(r.g)), fits, r.k.name, r.res.threads, r.res.mlups,
 			b/1e9, limit, 100*r.res.mlups/limit, scaling)
 	}
 	fmt.Fprintln(w)
 	fmt.Fprintf(w, "MLUPS: million node updates per second (Nz*Nr*steps/s), best batch.\n")
 	fmt.Fprintf(w, "Triad: a[i] = b[i] + s*c[i], counted as 24 B/element (STREAM; write-allocate makes it 32 B), same goroutine count as the row.\n")
-	fmt.Fprintf(w, "DRAM limit: triad bandwidth / %d B per node update (9 float64 reads + 9 writes).\n", bytesPerUpdate)
+	fmt.Fprintf(w, "DRAM limit: triad bandwidth / %d B per node update (9 float64 reads + 9 writes; %d B with float32).\n", bytesPerUpdate, bytesPerUpdate/2)
 	fmt.Fprintf(w, "Scaling: MLUPS(n) / (n * MLUPS(1)).\n")
 	fmt.Fprintf(w, "lattices: size of the two population lattices; * = fits in the last-level cache,\n")
 	fmt.Fprintf(w, "so that grid can run above the DRAM limit.\n")
