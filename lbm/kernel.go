@@ -49,6 +49,9 @@ type block struct {
 	// boundary (newBlock); the lattices they point into are kept alive by
 	// the Solver.
 	src, dst [Q]uintptr
+	// tail is the lane mask of the SIMD loops' last vector when the block
+	// does not fill it: bit x for the block's node nb&^7 + x.
+	tail uint16
 }
 
 // newBlock returns a block whose arrays start on a 64-byte boundary, so
@@ -130,10 +133,11 @@ func sweepRun[T real](s *Solver, a, b *[Q][]T, n0, n1 int, axi bool, obs *Fields
 	for k0 := n0; k0 < n1; k0 += blk {
 		k1 := min(k0+blk, n1)
 		nb := k1 - k0
-		nv := 0 // nodes [0, nv) of the block go through the SIMD loops
+		nv := 0 // nodes [0, nv) of the block go through the SIMD loops, the rest through Go
 		if s.simd {
 			pointers(a, b, &s.off, k0, nb, t)
-			nv = nb &^ (simdWidth - 1)
+			nv = nb // the last vector is masked
+			t.tail = uint16(1)<<(nb%simdWidth) - 1
 		}
 		whole := !axi && obs == nil && s.mrt == nil // planarSIMD does all of it
 		switch {

@@ -9,12 +9,14 @@ import "golang.org/x/sys/cpu"
 const simdWidth = 8
 
 // simdAvailable reports whether the processor and the operating system
-// support the AVX-512 loops of simd_amd64.s (AVX-512 F; x/sys/cpu also
-// checks that the OS saves the ZMM registers). Read once at start-up.
-var simdAvailable = cpu.X86.HasAVX512F
+// support the AVX-512 loops of simd_amd64.s (AVX-512 F, and VL for the
+// masked 256-bit stores of float32; x/sys/cpu also checks that the OS
+// saves the ZMM registers). Read once at start-up.
+var simdAvailable = cpu.X86.HasAVX512F && cpu.X86.HasAVX512VL
 
-// The SIMD loops: each does, for the first n nodes of the block (n a
-// multiple of simdWidth), exactly the arithmetic of the Go loops it stands
+// The SIMD loops: each does, for the first n nodes of the block (the last
+// vector masked by t.tail when n is not a multiple of simdWidth; masked
+// loads do not touch memory beyond the block), exactly the arithmetic of the Go loops it stands
 // for in kernel.go, operation by operation and in the same order, eight
 // nodes per instruction. Without fused multiply-adds and with IEEE
 // division, each lane rounds as the Go code does, so both give the same

@@ -13,7 +13,12 @@
 // Block arrays are addressed as block_<field>(DI)(CX*8): DI is the block,
 // CX the node index (a multiple of 8), DX the number of nodes. The
 // populations are at the addresses block_src and block_dst (uintptrs set
-// by Solver.pointers), loaded into general registers where needed.
+// by pointers), loaded into general registers where needed. Every load and
+// store of a population is masked by K1: all lanes, or in the last vector
+// of a block that does not fill it the lanes of block_tail, so that no
+// population beyond the block is read or written (masked-off lanes of a
+// load are zero and do not fault). The block arrays are blk long, so
+// whole vectors of them are always inside.
 
 #include "textflag.h"
 #include "go_asm.h"
@@ -83,6 +88,18 @@ TEXT ·gatherSIMD(SB), NOSPLIT, $0-24
 gloop:
 	CMPQ CX, DX
 	JGE gdone
+	// K1: all eight lanes, or the block's last nodes (block_tail)
+	MOVQ DX, R13
+	SUBQ CX, R13
+	CMPQ R13, $8
+	JLT gloop_tail
+	KXNORW K1, K1, K1
+	JMP gloop_go
+
+gloop_tail:
+	KMOVW block_tail(DI), K1
+
+gloop_go:
 	SRC(0, AX)
 	SRC(1, BX)
 	SRC(2, SI)
@@ -92,14 +109,14 @@ gloop:
 	SRC(6, R11)
 	SRC(7, R12)
 	SRC(8, R13)
-	VMOVUPD (BX)(CX*8), Z12 // d1
-	VMOVUPD (R8)(CX*8), Z13 // d3
-	VMOVUPD (SI)(CX*8), Z14 // d2
-	VMOVUPD (R9)(CX*8), Z15 // d4
-	VMOVUPD (R10)(CX*8), Z16 // d5
-	VMOVUPD (R12)(CX*8), Z17 // d7
-	VMOVUPD (R11)(CX*8), Z18 // d6
-	VMOVUPD (R13)(CX*8), Z19 // d8
+	VMOVUPD.Z (BX)(CX*8), K1, Z12 // d1
+	VMOVUPD.Z (R8)(CX*8), K1, Z13 // d3
+	VMOVUPD.Z (SI)(CX*8), K1, Z14 // d2
+	VMOVUPD.Z (R9)(CX*8), K1, Z15 // d4
+	VMOVUPD.Z (R10)(CX*8), K1, Z16 // d5
+	VMOVUPD.Z (R12)(CX*8), K1, Z17 // d7
+	VMOVUPD.Z (R11)(CX*8), K1, Z18 // d6
+	VMOVUPD.Z (R13)(CX*8), K1, Z19 // d8
 	VADDPD Z15, Z14, Z20 // s24
 	VADDPD Z17, Z16, Z21 // s57
 	VADDPD Z19, Z18, Z22 // s68
@@ -108,7 +125,8 @@ gloop:
 	VADDPD Z22, Z21, Z17 // s5678
 	VADDPD Z13, Z12, Z19 // d1 + d3
 	VADDPD Z20, Z19, Z19 // + s24
-	VADDPD (AX)(CX*8), Z19, Z19 // d0 + (...)
+	VMOVUPD.Z (AX)(CX*8), K1, Z3 // d0
+	VADDPD Z3, Z19, Z19 // d0 + (...)
 	VADDPD Z17, Z19, Z0 // drho0 = (...) + s5678
 	VSUBPD Z13, Z12, Z12 // d1 - d3
 	VSUBPD Z18, Z16, Z13 // m57 - m68
@@ -167,8 +185,8 @@ gdone:
 	VMULPD eu, Z16, Z16; \
 	VADDPD Z16, Z6, Z16; \
 	VMULPD.BCST (R+pairRates_w2)(DI), Z16, Z16; \
-	VMOVUPD (pi)(CX*8), Z17; \
-	VMOVUPD (pj)(CX*8), Z18; \
+	VMOVUPD.Z (pi)(CX*8), K1, Z17; \
+	VMOVUPD.Z (pj)(CX*8), K1, Z18; \
 	VADDPD Z18, Z17, Z19; \
 	VSUBPD Z16, Z19, Z19; \
 	VMULPD.BCST (R+pairRates_nhp)(DI), Z19, Z19; \
@@ -185,10 +203,10 @@ gdone:
 	VADDPD Z22, Z21, Z21; \
 	VADDPD Z19, Z17, Z17; \
 	VADDPD Z21, Z17, Z17; \
-	VMOVUPD Z17, (qi)(CX*8); \
+	VMOVUPD Z17, K1, (qi)(CX*8); \
 	VADDPD Z19, Z18, Z18; \
 	VSUBPD Z21, Z18, Z18; \
-	VMOVUPD Z18, (qj)(CX*8)
+	VMOVUPD Z18, K1, (qj)(CX*8)
 
 // func collideSIMD(t *block, n int)
 //
@@ -209,6 +227,18 @@ TEXT ·collideSIMD(SB), NOSPLIT, $0-16
 cloop:
 	CMPQ CX, DX
 	JGE cdone
+	// K1: all eight lanes, or the block's last nodes (block_tail)
+	MOVQ DX, R9
+	SUBQ CX, R9
+	CMPQ R9, $8
+	JLT cloop_tail
+	KXNORW K1, K1, K1
+	JMP cloop_go
+
+cloop_tail:
+	KMOVW block_tail(DI), K1
+
+cloop_go:
 	// rest: u = m/rho and the common terms.
 	VMOVUPD block_drho(DI)(CX*8), Z0
 	VMOVUPD block_inv(DI)(CX*8), Z1
@@ -233,14 +263,14 @@ cloop:
 	// f*_0 = (d0 - w+ (d0 - w0 base)) + (1 - w+/2) w0 sbase
 	SRC(0, AX)
 	DST(0, BX)
-	VMOVUPD (AX)(CX*8), Z12
+	VMOVUPD.Z (AX)(CX*8), K1, Z12
 	VMULPD Z26, Z6, Z13
 	VSUBPD Z13, Z12, Z13
 	VMULPD Z27, Z13, Z13
 	VSUBPD Z13, Z12, Z13
 	VMULPD Z25, Z7, Z14
 	VADDPD Z14, Z13, Z13
-	VMOVUPD Z13, (BX)(CX*8)
+	VMOVUPD Z13, K1, (BX)(CX*8)
 	// Pairs (1,3), e = (1,0), and (2,4), e = (0,1).
 	VMULPD.BCST (block_axis+pairRates_w6)(DI), Z2, Z15
 	SRC(1, AX)
@@ -282,8 +312,8 @@ cdone:
 	VMULPD eu, Z16, Z16; \
 	VADDPD Z16, Z6, Z16; \
 	VMULPD.BCST (R+pairRates_w2)(DI), Z16, Z16; \
-	VCVTPS2PD (pi)(CX*4), Z17; \
-	VCVTPS2PD (pj)(CX*4), Z18; \
+	VCVTPS2PD.Z (pi)(CX*4), K1, Z17; \
+	VCVTPS2PD.Z (pj)(CX*4), K1, Z18; \
 	VADDPD Z18, Z17, Z19; \
 	VSUBPD Z16, Z19, Z19; \
 	VMULPD.BCST (R+pairRates_nhp)(DI), Z19, Z19; \
@@ -301,11 +331,11 @@ cdone:
 	VADDPD Z19, Z17, Z17; \
 	VADDPD Z21, Z17, Z17; \
 	VCVTPD2PS Z17, Y17; \
-	VMOVUPS Y17, (qi)(CX*4); \
+	VMOVUPS Y17, K1, (qi)(CX*4); \
 	VADDPD Z19, Z18, Z18; \
 	VSUBPD Z21, Z18, Z18; \
 	VCVTPD2PS Z18, Y18; \
-	VMOVUPS Y18, (qj)(CX*4)
+	VMOVUPS Y18, K1, (qj)(CX*4)
 
 // func gatherSIMD32(t *block, n int, passes int)
 //
@@ -329,6 +359,18 @@ TEXT ·gatherSIMD32(SB), NOSPLIT, $0-24
 gloop32:
 	CMPQ CX, DX
 	JGE gdone32
+	// K1: all eight lanes, or the block's last nodes (block_tail)
+	MOVQ DX, R13
+	SUBQ CX, R13
+	CMPQ R13, $8
+	JLT gloop32_tail
+	KXNORW K1, K1, K1
+	JMP gloop32_go
+
+gloop32_tail:
+	KMOVW block_tail(DI), K1
+
+gloop32_go:
 	SRC(0, AX)
 	SRC(1, BX)
 	SRC(2, SI)
@@ -338,14 +380,14 @@ gloop32:
 	SRC(6, R11)
 	SRC(7, R12)
 	SRC(8, R13)
-	VCVTPS2PD (BX)(CX*4), Z12 // d1
-	VCVTPS2PD (R8)(CX*4), Z13 // d3
-	VCVTPS2PD (SI)(CX*4), Z14 // d2
-	VCVTPS2PD (R9)(CX*4), Z15 // d4
-	VCVTPS2PD (R10)(CX*4), Z16 // d5
-	VCVTPS2PD (R12)(CX*4), Z17 // d7
-	VCVTPS2PD (R11)(CX*4), Z18 // d6
-	VCVTPS2PD (R13)(CX*4), Z19 // d8
+	VCVTPS2PD.Z (BX)(CX*4), K1, Z12 // d1
+	VCVTPS2PD.Z (R8)(CX*4), K1, Z13 // d3
+	VCVTPS2PD.Z (SI)(CX*4), K1, Z14 // d2
+	VCVTPS2PD.Z (R9)(CX*4), K1, Z15 // d4
+	VCVTPS2PD.Z (R10)(CX*4), K1, Z16 // d5
+	VCVTPS2PD.Z (R12)(CX*4), K1, Z17 // d7
+	VCVTPS2PD.Z (R11)(CX*4), K1, Z18 // d6
+	VCVTPS2PD.Z (R13)(CX*4), K1, Z19 // d8
 	VADDPD Z15, Z14, Z20 // s24
 	VADDPD Z17, Z16, Z21 // s57
 	VADDPD Z19, Z18, Z22 // s68
@@ -354,7 +396,7 @@ gloop32:
 	VADDPD Z22, Z21, Z17 // s5678
 	VADDPD Z13, Z12, Z19 // d1 + d3
 	VADDPD Z20, Z19, Z19 // + s24
-	VCVTPS2PD (AX)(CX*4), Z3 // d0
+	VCVTPS2PD.Z (AX)(CX*4), K1, Z3 // d0
 	VADDPD Z3, Z19, Z19 // d0 + (...)
 	VADDPD Z17, Z19, Z0 // drho0 = (...) + s5678
 	VSUBPD Z13, Z12, Z12 // d1 - d3
@@ -426,6 +468,18 @@ TEXT ·collideSIMD32(SB), NOSPLIT, $0-16
 cloop32:
 	CMPQ CX, DX
 	JGE cdone32
+	// K1: all eight lanes, or the block's last nodes (block_tail)
+	MOVQ DX, R9
+	SUBQ CX, R9
+	CMPQ R9, $8
+	JLT cloop32_tail
+	KXNORW K1, K1, K1
+	JMP cloop32_go
+
+cloop32_tail:
+	KMOVW block_tail(DI), K1
+
+cloop32_go:
 	// rest: u = m/rho and the common terms.
 	VMOVUPD block_drho(DI)(CX*8), Z0
 	VMOVUPD block_inv(DI)(CX*8), Z1
@@ -450,7 +504,7 @@ cloop32:
 	// f*_0 = (d0 - w+ (d0 - w0 base)) + (1 - w+/2) w0 sbase
 	SRC(0, AX)
 	DST(0, BX)
-	VCVTPS2PD (AX)(CX*4), Z12
+	VCVTPS2PD.Z (AX)(CX*4), K1, Z12
 	VMULPD Z26, Z6, Z13
 	VSUBPD Z13, Z12, Z13
 	VMULPD Z27, Z13, Z13
@@ -458,7 +512,7 @@ cloop32:
 	VMULPD Z25, Z7, Z14
 	VADDPD Z14, Z13, Z13
 	VCVTPD2PS Z13, Y13
-	VMOVUPS Y13, (BX)(CX*4)
+	VMOVUPS Y13, K1, (BX)(CX*4)
 	// Pairs (1,3), e = (1,0), and (2,4), e = (0,1).
 	VMULPD.BCST (block_axis+pairRates_w6)(DI), Z2, Z15
 	SRC(1, AX)
@@ -516,6 +570,18 @@ TEXT ·planarSIMD(SB), NOSPLIT, $0-16
 ploop:
 	CMPQ CX, DX
 	JGE pdone
+	// K1: all eight lanes, or the block's last nodes (block_tail)
+	MOVQ DX, R13
+	SUBQ CX, R13
+	CMPQ R13, $8
+	JLT ploop_tail
+	KXNORW K1, K1, K1
+	JMP ploop_go
+
+ploop_tail:
+	KMOVW block_tail(DI), K1
+
+ploop_go:
 	SRC(0, AX)
 	SRC(1, BX)
 	SRC(2, SI)
@@ -525,14 +591,14 @@ ploop:
 	SRC(6, R11)
 	SRC(7, R12)
 	SRC(8, R13)
-	VMOVUPD (BX)(CX*8), Z12 // d1
-	VMOVUPD (R8)(CX*8), Z13 // d3
-	VMOVUPD (SI)(CX*8), Z14 // d2
-	VMOVUPD (R9)(CX*8), Z15 // d4
-	VMOVUPD (R10)(CX*8), Z16 // d5
-	VMOVUPD (R12)(CX*8), Z17 // d7
-	VMOVUPD (R11)(CX*8), Z18 // d6
-	VMOVUPD (R13)(CX*8), Z19 // d8
+	VMOVUPD.Z (BX)(CX*8), K1, Z12 // d1
+	VMOVUPD.Z (R8)(CX*8), K1, Z13 // d3
+	VMOVUPD.Z (SI)(CX*8), K1, Z14 // d2
+	VMOVUPD.Z (R9)(CX*8), K1, Z15 // d4
+	VMOVUPD.Z (R10)(CX*8), K1, Z16 // d5
+	VMOVUPD.Z (R12)(CX*8), K1, Z17 // d7
+	VMOVUPD.Z (R11)(CX*8), K1, Z18 // d6
+	VMOVUPD.Z (R13)(CX*8), K1, Z19 // d8
 	VADDPD Z15, Z14, Z20 // s24
 	VADDPD Z17, Z16, Z21 // s57
 	VADDPD Z19, Z18, Z3 // s68
@@ -541,7 +607,8 @@ ploop:
 	VADDPD Z3, Z21, Z17 // s5678
 	VADDPD Z13, Z12, Z19 // d1 + d3
 	VADDPD Z20, Z19, Z19 // + s24
-	VADDPD (AX)(CX*8), Z19, Z19 // d0 + (...)
+	VMOVUPD.Z (AX)(CX*8), K1, Z4 // d0
+	VADDPD Z4, Z19, Z19 // d0 + (...)
 	VADDPD Z17, Z19, Z0 // drho0 = (...) + s5678
 	VSUBPD Z13, Z12, Z12 // d1 - d3
 	VSUBPD Z18, Z16, Z13 // m57 - m68
@@ -577,14 +644,14 @@ ploop:
 	// f*_0 = (d0 - w+ (d0 - w0 base)) + (1 - w+/2) w0 sbase
 	SRC(0, AX)
 	DST(0, BX)
-	VMOVUPD (AX)(CX*8), Z12
+	VMOVUPD.Z (AX)(CX*8), K1, Z12
 	VMULPD Z26, Z6, Z13
 	VSUBPD Z13, Z12, Z13
 	VMULPD Z27, Z13, Z13
 	VSUBPD Z13, Z12, Z13
 	VMULPD Z25, Z7, Z14
 	VADDPD Z14, Z13, Z13
-	VMOVUPD Z13, (BX)(CX*8)
+	VMOVUPD Z13, K1, (BX)(CX*8)
 	// Pairs (1,3), e = (1,0), and (2,4), e = (0,1).
 	VMULPD.BCST (block_axis+pairRates_w6)(DI), Z2, Z15
 	SRC(1, AX)
@@ -642,6 +709,18 @@ TEXT ·planarSIMD32(SB), NOSPLIT, $0-16
 ploop32:
 	CMPQ CX, DX
 	JGE pdone32
+	// K1: all eight lanes, or the block's last nodes (block_tail)
+	MOVQ DX, R13
+	SUBQ CX, R13
+	CMPQ R13, $8
+	JLT ploop32_tail
+	KXNORW K1, K1, K1
+	JMP ploop32_go
+
+ploop32_tail:
+	KMOVW block_tail(DI), K1
+
+ploop32_go:
 	SRC(0, AX)
 	SRC(1, BX)
 	SRC(2, SI)
@@ -651,14 +730,14 @@ ploop32:
 	SRC(6, R11)
 	SRC(7, R12)
 	SRC(8, R13)
-	VCVTPS2PD (BX)(CX*4), Z12 // d1
-	VCVTPS2PD (R8)(CX*4), Z13 // d3
-	VCVTPS2PD (SI)(CX*4), Z14 // d2
-	VCVTPS2PD (R9)(CX*4), Z15 // d4
-	VCVTPS2PD (R10)(CX*4), Z16 // d5
-	VCVTPS2PD (R12)(CX*4), Z17 // d7
-	VCVTPS2PD (R11)(CX*4), Z18 // d6
-	VCVTPS2PD (R13)(CX*4), Z19 // d8
+	VCVTPS2PD.Z (BX)(CX*4), K1, Z12 // d1
+	VCVTPS2PD.Z (R8)(CX*4), K1, Z13 // d3
+	VCVTPS2PD.Z (SI)(CX*4), K1, Z14 // d2
+	VCVTPS2PD.Z (R9)(CX*4), K1, Z15 // d4
+	VCVTPS2PD.Z (R10)(CX*4), K1, Z16 // d5
+	VCVTPS2PD.Z (R12)(CX*4), K1, Z17 // d7
+	VCVTPS2PD.Z (R11)(CX*4), K1, Z18 // d6
+	VCVTPS2PD.Z (R13)(CX*4), K1, Z19 // d8
 	VADDPD Z15, Z14, Z20 // s24
 	VADDPD Z17, Z16, Z21 // s57
 	VADDPD Z19, Z18, Z3 // s68
@@ -667,7 +746,7 @@ ploop32:
 	VADDPD Z3, Z21, Z17 // s5678
 	VADDPD Z13, Z12, Z19 // d1 + d3
 	VADDPD Z20, Z19, Z19 // + s24
-	VCVTPS2PD (AX)(CX*4), Z4 // d0
+	VCVTPS2PD.Z (AX)(CX*4), K1, Z4 // d0
 	VADDPD Z4, Z19, Z19 // d0 + (...)
 	VADDPD Z17, Z19, Z0 // drho0 = (...) + s5678
 	VSUBPD Z13, Z12, Z12 // d1 - d3
@@ -704,7 +783,7 @@ ploop32:
 	// f*_0 = (d0 - w+ (d0 - w0 base)) + (1 - w+/2) w0 sbase
 	SRC(0, AX)
 	DST(0, BX)
-	VCVTPS2PD (AX)(CX*4), Z12
+	VCVTPS2PD.Z (AX)(CX*4), K1, Z12
 	VMULPD Z26, Z6, Z13
 	VSUBPD Z13, Z12, Z13
 	VMULPD Z27, Z13, Z13
@@ -712,7 +791,7 @@ ploop32:
 	VMULPD Z25, Z7, Z14
 	VADDPD Z14, Z13, Z13
 	VCVTPD2PS Z13, Y13
-	VMOVUPS Y13, (BX)(CX*4)
+	VMOVUPS Y13, K1, (BX)(CX*4)
 	// Pairs (1,3), e = (1,0), and (2,4), e = (0,1).
 	VMULPD.BCST (block_axis+pairRates_w6)(DI), Z2, Z15
 	SRC(1, AX)
