@@ -67,6 +67,12 @@ type Bodies struct {
 	covered, uncovered []geometry.Node
 	fresh              []lbm.Fresh
 	links              []lbm.Link
+
+	// MoveAll relinks the bodies on the solver's workers: a link list per
+	// worker, an error per body and the worker function, made once.
+	workerLinks [][]lbm.Link
+	relinkErr   []error
+	relinkFn    func(w, workers int)
 }
 
 // NewBodies places spheres with wall velocities v on the lattice fl.
@@ -95,14 +101,49 @@ func NewBodies(fl *lbm.Solver, spheres []geometry.Sphere, v []float64) (*Bodies,
 }
 
 // relink recomputes the boundary links of body i.
-func (bs *Bodies) relink(i int) error {
+func (bs *Bodies) relink(i int) error { return bs.relinkWith(i, &bs.links) }
+
+// relinkWith is relink with a given link list as scratch.
+func (bs *Bodies) relinkWith(i int, links *[]lbm.Link) error {
 	b := bs.List[i]
-	bs.links = bs.Domain.AppendLinks(bs.links[:0], b.Shape, bs.fl.Solid)
-	if err := bs.fl.SetBoundary(i, bs.links, b.V); err != nil {
+	*links = bs.Domain.AppendLinks((*links)[:0], b.Shape, bs.fl.Solid)
+	if err := bs.fl.SetBoundary(i, *links, b.V); err != nil {
 		return err
 	}
 	_, b.Fallback = bs.fl.BoundaryForce(i)
 	return nil
+}
+
+// MoveAll moves every body i to centre z[i] with velocity v[i], as MoveTo
+// body by body does, and gives the same bits: first the nodes each body
+// covers and uncovers, in body order, then the links of all bodies, on the
+// solver's worker goroutines (links depend only on the final solid nodes,
+// the shape and the velocity of their body, so the order does not matter).
+func (bs *Bodies) MoveAll(z, v []float64) error {
+	for i := range bs.List {
+		if err := bs.move(i, z[i], v[i]); err != nil {
+			return err
+		}
+	}
+	if bs.relinkFn == nil {
+		bs.workerLinks = make([][]lbm.Link, bs.fl.Threads())
+		bs.relinkErr = make([]error, len(bs.List))
+		bs.relinkFn = bs.relinkShare
+	}
+	bs.fl.Parallel(bs.relinkFn)
+	for _, err := range bs.relinkErr {
+		if err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// relinkShare relinks bodies w, w + workers, ... (see MoveAll).
+func (bs *Bodies) relinkShare(w, workers int) {
+	for i := w; i < len(bs.List); i += workers {
+		bs.relinkErr[i] = bs.relinkWith(i, &bs.workerLinks[w])
+	}
 }
 
 // Collect reads the link forces of the Step just taken.
@@ -118,6 +159,26 @@ func (bs *Bodies) Collect() {
 // the body), and its links are rebuilt. Only nodes near the body are
 // touched.
 func (bs *Bodies) MoveTo(i int, z, v float64) error {
+	if err := bs.move(i, z, v); err != nil {
+		return err
+	}
+	// Links of this body, and of any other body near the nodes that changed.
+	if err := bs.relink(i); err != nil {
+		return err
+	}
+	for k := range bs.List {
+		if k != i && bs.near(k, bs.covered, bs.uncovered) {
+			if err := bs.relink(k); err != nil {
+				return err
+			}
+		}
+	}
+	return nil
+}
+
+// move is MoveTo without the links: the nodes body i covers and uncovers
+// (left in bs.covered and bs.uncovered), their momentum and the refill.
+func (bs *Bodies) move(i int, z, v float64) error {
 	b := bs.List[i]
 	next := geometry.Sphere{Z: z, Radius: b.Shape.Radius}
 	bs.covered, bs.uncovered = bs.Domain.AppendMove(bs.covered[:0], bs.uncovered[:0], b.Shape, next)
@@ -141,17 +202,6 @@ func (bs *Bodies) MoveTo(i int, z, v float64) error {
 	b.NodeImpulse = pn
 	b.NodeForce = b.addImpulse(pn)
 	b.Covered, b.Uncovered = len(covered), len(uncovered)
-	// Links of this body, and of any other body near the nodes that changed.
-	if err := bs.relink(i); err != nil {
-		return err
-	}
-	for k := range bs.List {
-		if k != i && bs.near(k, covered, uncovered) {
-			if err := bs.relink(k); err != nil {
-				return err
-			}
-		}
-	}
 	return nil
 }
 

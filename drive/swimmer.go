@@ -166,9 +166,9 @@ func (s *Simulation) stepBodies(n int64) error {
 			return fmt.Errorf("sphere %d moves %.3g cells per step at t = %.6g s (the wall CFL limit is 0.5): %s",
 				k+1, v, t, s.instabilityRemedy())
 		}
-		if err := sw.bodies.MoveTo(k, sw.dyn.Z[k], v); err != nil {
-			return fmt.Errorf("t = %.6g s: %w", t, err)
-		}
+	}
+	if err := sw.bodies.MoveAll(sw.dyn.Z, sw.dyn.V); err != nil {
+		return fmt.Errorf("t = %.6g s: %w", t, err)
 	}
 	if g, i, j := s.smallestGap(); g < 1 {
 		what := fmt.Sprintf("spheres %d and %d", i+1, j+1)

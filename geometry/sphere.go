@@ -124,11 +124,36 @@ func (d Domain) AppendLinks(out []lbm.Link, s Sphere, solid func(k, j int) bool)
 	// nearest periodic image) and is skipped before the eight tests; the
 	// margin 1.5 > sqrt(2) covers the round-off of Inside.
 	far := (s.Radius + 1.5) * (s.Radius + 1.5)
+	// A node nearer than a - 1.5 to the centre is inside with all its
+	// neighbours, hence solid, and has no links either. Each row is
+	// scanned only over the chords between the two circles (a cell wider
+	// on each side for round-off); the exact tests below decide.
+	deep := -1.0
+	if s.Radius > 1.5 {
+		deep = (s.Radius - 1.5) * (s.Radius - 1.5)
+	}
 	for j := 0; j <= j1; j++ {
-		for kk := k0; kk <= k1; kk++ {
+		r := float64(j) + 0.5
+		if r*r > far {
+			break
+		}
+		xo := math.Sqrt(far - r*r)
+		xi := math.Sqrt(max(deep-r*r, 0))
+		// x = kk + 0.5 - Z within [-xo, -xi] or [xi, xo]
+		l0 := max(k0, int(math.Floor(s.Z-xo-0.5))-1)
+		l1 := min(k1, int(math.Ceil(s.Z-xi-0.5))+1)
+		r0 := max(k0, int(math.Floor(s.Z+xi-0.5))-1)
+		r1 := min(k1, int(math.Ceil(s.Z+xo-0.5))+1)
+		if r0 <= l1 {
+			l1, r0 = r1, r1+1 // the windows overlap: one range
+		}
+		for kk := l0; kk <= r1; kk++ {
+			if kk == l1+1 && r0 > kk {
+				kk = r0
+			}
 			k := d.wrap(kk)
-			z, r := float64(kk)+0.5, float64(j)+0.5
-			if x := d.dz(z, s.Z); x*x+r*r > far {
+			z := float64(kk) + 0.5
+			if x := d.dz(z, s.Z); x*x+r*r > far || x*x+r*r < deep {
 				continue
 			}
 			if k < 0 || k >= d.Nz || solid(k, j) {

@@ -3,6 +3,7 @@ package lbm
 import (
 	"fmt"
 	"math"
+	"slices"
 )
 
 // Link is a boundary link handed to the lattice: the fluid node (K, J), the
@@ -76,17 +77,20 @@ func (s *Solver) SetBoundary(id int, links []Link, vz float64) error {
 	}
 	b := s.bodies[id]
 	b.vz = vz
-	b.links = b.links[:0]
 	b.fallback = 0
-	for _, l := range links {
-		p, err := s.prepare(l)
-		if err != nil {
+	// Prepared in place: a preparedLink is some 130 bytes, and building
+	// each one elsewhere and copying it in was a good part of the cost of
+	// moving a body.
+	b.links = slices.Grow(b.links[:0], len(links))[:len(links)]
+	for x, l := range links {
+		p := &b.links[x]
+		if err := s.prepare(p, l); err != nil {
+			b.links = b.links[:0]
 			return fmt.Errorf("lbm: body %d: %w", id, err)
 		}
 		if !p.quad {
 			b.fallback++
 		}
-		b.links = append(b.links, p)
 	}
 	return nil
 }
@@ -132,13 +136,14 @@ func (s *Solver) fluidAt(k, j, dir int) (n, d int, ok bool) {
 	return n, d, true
 }
 
-func (s *Solver) prepare(l Link) (preparedLink, error) {
+// prepare fills p for link l.
+func (s *Solver) prepare(p *preparedLink, l Link) error {
 	if l.Dir < 1 || l.Dir >= Q || !(l.Q > 0 && l.Q <= 1) {
-		return preparedLink{}, fmt.Errorf("link (%d,%d) dir %d q %g: need dir 1..8 and 0 < q <= 1", l.K, l.J, l.Dir, l.Q)
+		return fmt.Errorf("link (%d,%d) dir %d q %g: need dir 1..8 and 0 < q <= 1", l.K, l.J, l.Dir, l.Q)
 	}
 	src, _, ok := s.fluidAt(l.K, l.J, 0)
 	if !ok || l.J < 0 {
-		return preparedLink{}, fmt.Errorf("link (%d,%d): not a fluid node", l.K, l.J)
+		return fmt.Errorf("link (%d,%d): not a fluid node", l.K, l.J)
 	}
 	i, o := l.Dir, Opp[l.Dir]
 	kd, jd := l.K+Ez[i], l.J+Er[i]
@@ -146,9 +151,9 @@ func (s *Solver) prepare(l Link) (preparedLink, error) {
 		kd = ((kd % s.nz) + s.nz) % s.nz
 	}
 	if kd < 0 || kd >= s.nz || jd >= s.nr || jd < -1 {
-		return preparedLink{}, fmt.Errorf("link (%d,%d) dir %d leaves the domain", l.K, l.J, i)
+		return fmt.Errorf("link (%d,%d) dir %d leaves the domain", l.K, l.J, i)
 	}
-	p := preparedLink{dst: s.idx(kd, jd), src: src, dir: i, opp: o, n1: -1, n2: -1,
+	*p = preparedLink{dst: s.idx(kd, jd), src: src, dir: i, opp: o, n1: -1, n2: -1,
 		wallTerm: -6 * W[i] * float64(Ez[i]), ez: float64(Ez[i]),
 		ring: 2 * math.Pi * (s.rows[l.J].r + 0.5*float64(Er[i]))}
 	q := l.Q
@@ -168,7 +173,7 @@ func (s *Solver) prepare(l Link) (preparedLink, error) {
 		default:
 			p.cA, p.cw = 1, 1
 		}
-		return p, nil
+		return nil
 	}
 	if n1, d1, ok1 := s.fluidAt(k1, j1, o); ok1 {
 		p.cA, p.cB, p.c1, p.cw = 1/(q*(2*q+1)), (2*q-1)/q, -(2*q-1)/(2*q+1), 1/(q*(2*q+1))
@@ -177,7 +182,7 @@ func (s *Solver) prepare(l Link) (preparedLink, error) {
 	} else {
 		p.cA, p.cB, p.cw = 1/(2*q), (2*q-1)/(2*q), 1/(2*q)
 	}
-	return p, nil
+	return nil
 }
 
 // boundaryPass writes, for every link of every body, the population the

@@ -54,12 +54,12 @@ func fillHalo[T real](s *Solver, f *[Q][]T) {
 			}
 		}
 	}
-	// Side wall, e_r = -1 directions leave the ghost row toward row Nr-1.
-	for k := -1; k <= nz; k++ {
-		for _, i := range [...]int{4, 7, 8} {
-			if kd := k + Ez[i]; kd >= 0 && kd < nz {
-				f[i][s.idx(k, nr)] = f[Opp[i]][s.idx(kd, nr-1)]
-			}
-		}
+	// Side wall, e_r = -1 directions leave the ghost row toward row Nr-1:
+	// f_i(k, Nr) = f*_opp(i)(k + e_iz, Nr-1) for every k with k + e_iz a
+	// node, one contiguous copy per direction (i = 4, 7, 8: e_z = 0, -1, 1).
+	src := s.idx(0, nr-1)
+	for _, i := range [...]int{4, 7, 8} {
+		dst := s.idx(-Ez[i], nr)
+		copy(f[i][dst:dst+nz], f[Opp[i]][src:src+nz])
 	}
 }

@@ -130,12 +130,21 @@ type real interface{ ~float32 | ~float64 }
 // sweepRun is the loop over the blocks of sweepBlocks, from lattice a into
 // lattice b.
 func sweepRun[T real](s *Solver, a, b *[Q][]T, n0, n1 int, axi bool, obs *Fields, o0 int, t *block) {
+	var src, dst [Q]uintptr // the run's first populations, for the SIMD loops
+	if s.simd && n1 > n0 {
+		pointers(a, b, &s.off, n0, n1-n0, t) // checks the bounds of the whole run
+		src, dst = t.src, t.dst
+	}
+	size := unsafe.Sizeof(T(0))
 	for k0 := n0; k0 < n1; k0 += blk {
 		k1 := min(k0+blk, n1)
 		nb := k1 - k0
 		nv := 0 // nodes [0, nv) of the block go through the SIMD loops, the rest through Go
 		if s.simd {
-			pointers(a, b, &s.off, k0, nb, t)
+			shift := uintptr(k0-n0) * size
+			for q := range Q {
+				t.src[q], t.dst[q] = src[q]+shift, dst[q]+shift
+			}
 			nv = nb // the last vector is masked
 			t.tail = uint16(1)<<(nb%simdWidth) - 1
 		}
@@ -157,10 +166,12 @@ func sweepRun[T real](s *Solver, a, b *[Q][]T, n0, n1 int, axi bool, obs *Fields
 				gatherSIMD(t, nv, passes)
 			}
 		}
-		gather(a, &s.off, k0, k1, nv, axi, t)
-		if axi {
-			for it := 0; it < s.nIter; it++ {
-				t.pass(nv, nb)
+		if nv < nb { // the Go loops, for what SIMD did not do
+			gather(a, &s.off, k0, k1, nv, axi, t)
+			if axi {
+				for it := 0; it < s.nIter; it++ {
+					t.pass(nv, nb)
+				}
 			}
 		}
 		switch {
@@ -182,8 +193,10 @@ func sweepRun[T real](s *Solver, a, b *[Q][]T, n0, n1 int, axi bool, obs *Fields
 					collideSIMD(t, nv)
 				}
 			}
-			rest(a, b, &s.off, k0, k1, nv, t)
-			pairs(a, b, &s.off, k0, k1, nv, t)
+			if nv < nb {
+				rest(a, b, &s.off, k0, k1, nv, t)
+				pairs(a, b, &s.off, k0, k1, nv, t)
+			}
 		}
 	}
 }
@@ -223,9 +236,9 @@ func sweepRun[T real](s *Solver, a, b *[Q][]T, n0, n1 int, axi bool, obs *Fields
 // operations instead of 48 and the division 1/rho is no longer on the
 // critical path. u = m / rho at the end.
 
-// pointers sets the SIMD loops' pointers to the first of the n nodes of
-// the block that starts at node n0. Slicing checks the bounds that the
-// loops, in assembly, do not.
+// pointers sets the SIMD loops' pointers to the first of the n nodes that
+// start at node n0. Slicing checks the bounds that the loops, in assembly,
+// do not.
 func pointers[T real](a, b *[Q][]T, off *[Q]int, n0, n int, t *block) {
 	for q := range Q {
 		t.src[q] = uintptr(unsafe.Pointer(&a[q][n0-off[q]:][:n][0]))

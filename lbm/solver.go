@@ -116,6 +116,17 @@ func (s *Solver) Kernel() string {
 	return "portable"
 }
 
+// Parallel calls fn(w, workers) once on each of the solver's worker
+// goroutines, w = 0 .. workers-1 (w = 0 on the caller's), and waits for all
+// of them: the same goroutines that run the steps, so that work between
+// steps (the bodies' boundary links, say) can be shared without starting
+// any. It does not allocate when fn is made once and kept (a method
+// value stored by the caller). It must not be called during a Step or from
+// fn.
+func (s *Solver) Parallel(fn func(w, workers int)) {
+	s.pool.runTask(task{s: s, user: fn, fn: userTask})
+}
+
 // Threads returns the number of goroutines working on each step.
 func (s *Solver) Threads() int { return len(s.pool.slabs) }
 
