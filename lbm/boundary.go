@@ -22,6 +22,10 @@ type Boundary struct {
 	links []preparedLink
 	vz    float64 // wall velocity for the next step
 
+	// touchesEnd: a link writes into the first or last column, whose
+	// values the end ghosts copy (see fillHalo)
+	touchesEnd bool
+
 	// results of the last Step
 	force    float64 // ring-weighted momentum exchange, z
 	fallback int     // links that fell back from quadratic interpolation
@@ -78,6 +82,7 @@ func (s *Solver) SetBoundary(id int, links []Link, vz float64) error {
 	b := s.bodies[id]
 	b.vz = vz
 	b.fallback = 0
+	b.touchesEnd = false
 	// Prepared in place: a preparedLink is some 130 bytes, and building
 	// each one elsewhere and copying it in was a good part of the cost of
 	// moving a body.
@@ -90,6 +95,9 @@ func (s *Solver) SetBoundary(id int, links []Link, vz float64) error {
 		}
 		if !p.quad {
 			b.fallback++
+		}
+		if k := p.dst % s.w; k == 1 || k == s.nz { // stored column of k = 0, Nz-1
+			b.touchesEnd = true
 		}
 	}
 	return nil

@@ -140,6 +140,7 @@ func (s *Solver) sumRows(t task) float64 {
 // SetEquilibrium sets every fluid node to the equilibrium of the density and
 // velocity that fn returns for it (lattice units).
 func (s *Solver) SetEquilibrium(fn func(k, j int) (rho, uz, ur float64)) {
+	s.haloStale = true
 	for j := 0; j < s.nr; j++ {
 		for k := 0; k < s.nz; k++ {
 			rho, uz, ur := fn(k, j)

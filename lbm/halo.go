@@ -14,15 +14,54 @@ package lbm
 // (wall node, direction) pair feeds exactly one fluid node, so it is written
 // as the ghost value f_i(g) = f*_{opp(i)}(g + e_i). Walls override the axis
 // at the corners. The cost is proportional to the perimeter.
+//
+// The ends are a column each, and writing a column touches one cache line
+// per row and plane: it was the largest serial part of a demo step. So the
+// kernel writes the ends' ghost values itself, row by row, while the row's
+// values are in cache (endGhosts), and fillHalo fills them only when the
+// lattice changed since the last step (haloStale: a refill at an end,
+// a density shift, a restore, an equilibrium) or a body's links write
+// into an end column.
 func (s *Solver) fillHalo() {
+	ends := s.haloStale
+	for _, b := range s.bodies {
+		ends = ends || b.touchesEnd
+	}
 	if s.single {
-		fillHalo(s, &s.a32)
+		fillHalo(s, &s.a32, ends)
 	} else {
-		fillHalo(s, &s.a)
+		fillHalo(s, &s.a, ends)
+	}
+	s.haloStale = false
+}
+
+// endGhosts writes the end ghost values that row j of lattice f feeds, as
+// fillHalo would from it: with periodic ends the row's own ghosts, with
+// closed ends the halfway bounce-back ghosts of rows j-1, j and j+1 whose
+// directions enter row j. Each ghost value is written by exactly one row,
+// so the workers do not share any.
+func endGhosts[T real](s *Solver, f *[Q][]T, j int) {
+	nz := s.nz
+	if s.cfg.PeriodicZ {
+		for _, i := range [...]int{1, 5, 8} {
+			f[i][s.idx(-1, j)] = f[i][s.idx(nz-1, j)]
+		}
+		for _, i := range [...]int{3, 6, 7} {
+			f[i][s.idx(nz, j)] = f[i][s.idx(0, j)]
+		}
+		return
+	}
+	for _, i := range [...]int{1, 5, 8} { // left end, e_z = +1
+		f[i][s.idx(-1, j-Er[i])] = f[Opp[i]][s.idx(0, j)]
+	}
+	for _, i := range [...]int{3, 6, 7} { // right end, e_z = -1
+		f[i][s.idx(nz, j-Er[i])] = f[Opp[i]][s.idx(nz-1, j)]
 	}
 }
 
-func fillHalo[T real](s *Solver, f *[Q][]T) {
+// fillHalo fills the halo of f; the ends' ghost values of rows 0..Nr-1
+// (with closed ends, those of all rows) only when ends is true.
+func fillHalo[T real](s *Solver, f *[Q][]T, ends bool) {
 	nz, nr := s.nz, s.nr
 	// Axis: only directions entering row 0 from below are read (e_r = +1).
 	for _, i := range [...]int{2, 5, 6} {
@@ -33,6 +72,9 @@ func fillHalo[T real](s *Solver, f *[Q][]T) {
 	}
 	if s.cfg.PeriodicZ {
 		for j := -1; j <= nr; j++ {
+			if !ends && j == 0 {
+				j = nr // the kernel wrote rows 0..Nr-1 (endGhosts)
+			}
 			for _, i := range [...]int{1, 5, 8} {
 				f[i][s.idx(-1, j)] = f[i][s.idx(nz-1, j)]
 			}
@@ -40,7 +82,7 @@ func fillHalo[T real](s *Solver, f *[Q][]T) {
 				f[i][s.idx(nz, j)] = f[i][s.idx(0, j)]
 			}
 		}
-	} else {
+	} else if ends {
 		for j := -1; j <= nr; j++ {
 			for _, i := range [...]int{1, 5, 8} { // left end, e_z = +1
 				if jd := j + Er[i]; jd >= 0 && jd < nr {

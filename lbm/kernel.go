@@ -13,6 +13,11 @@ func (s *Solver) streamCollideRows(lo, hi, w int) {
 		for _, seg := range s.segs[j] {
 			s.sweepBlocks(base+seg[0], base+seg[1], &s.rows[j], nil, 0, t)
 		}
+		if s.single {
+			endGhosts(s, &s.b32, j)
+		} else {
+			endGhosts(s, &s.b, j)
+		}
 	}
 }
 

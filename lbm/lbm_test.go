@@ -70,6 +70,7 @@ func TestPlanePoiseuilleBGKOffset(t *testing.T) {
 
 // randomState fills the post-collision lattice with small random deviations.
 func randomState(s *Solver, seed uint64) {
+	s.haloStale = true
 	rng := rand.New(rand.NewPCG(seed, 1))
 	for i := 0; i < Q; i++ {
 		for n := range s.planeLen() {

@@ -74,6 +74,9 @@ func (s *Solver) Refill(nodes []Fresh) float64 {
 	var total float64
 	for _, f := range nodes {
 		n := s.idx(f.K, f.J)
+		if f.K == 0 || f.K == s.nz-1 {
+			s.haloStale = true // the end ghosts copy this node
+		}
 		best, bn, bmirror := -2.0, -1, false
 		for i := 1; i < Q; i++ {
 			nn, d, ok := s.fluidAt(f.K+Ez[i], f.J+Er[i], i)
@@ -184,6 +187,7 @@ func (s *Solver) fluidMassRow(j int) float64 {
 // ShiftDensity adds w_i drho to every fluid node: a global mass correction
 // that changes the density and not the momentum (METHODS.md 6.3).
 func (s *Solver) ShiftDensity(drho float64) {
+	s.haloStale = true
 	s.runRows(task{x: drho, fn: shiftRows})
 }
 
@@ -231,6 +235,7 @@ func (s *Solver) Snapshot() LatticeState {
 // Restore puts back a state taken by Snapshot from a lattice of the same
 // size, so that the next Step produces the same bits as it would have.
 func (s *Solver) Restore(st LatticeState) error {
+	s.haloStale = true
 	if len(st.Solid) != len(s.solid) {
 		return fmt.Errorf("lbm: restore: state of %d nodes for a lattice of %d", len(st.Solid), len(s.solid))
 	}

@@ -18,24 +18,27 @@ type Solver struct {
 	single bool   // float32 storage
 	off    [Q]int // index offset of the upstream node: e_z + e_r*w
 
-	solid  []bool        // per node including halo; halo nodes are not solid
-	segs   [][][2]int    // per row: fluid runs [k0, k1)
-	rows   []rowConst    // per-row constants of the axisymmetric terms
-	nIter  int           // fixed-point iterations of the half-step moments
-	wp     float64       // even relaxation rate
-	wm     float64       // odd relaxation rate
-	mrt    *mrtRates     // nil unless MRT
-	nu     float64       // lattice kinematic viscosity
-	gz     float64       // uniform body force density, z
-	gr     float64       // uniform body force density, r
-	steps  int64         // steps taken
-	kernT  time.Duration // wall time spent in the fused kernel
-	simd   bool          // the block loops run in SIMD (simd_amd64.s)
-	blocks []*block      // the kernel's scratch block of each worker
-	pool   *pool
-	rowSum []float64 // per-row partial sums for deterministic reductions
-	kernel func(lo, hi, w int)
-	bodies []*Boundary // moving bodies, by id
+	solid []bool        // per node including halo; halo nodes are not solid
+	segs  [][][2]int    // per row: fluid runs [k0, k1)
+	rows  []rowConst    // per-row constants of the axisymmetric terms
+	nIter int           // fixed-point iterations of the half-step moments
+	wp    float64       // even relaxation rate
+	wm    float64       // odd relaxation rate
+	mrt   *mrtRates     // nil unless MRT
+	nu    float64       // lattice kinematic viscosity
+	gz    float64       // uniform body force density, z
+	gr    float64       // uniform body force density, r
+	steps int64         // steps taken
+	kernT time.Duration // wall time spent in the fused kernel
+	simd  bool          // the block loops run in SIMD (simd_amd64.s)
+	// haloStale: the lattice changed since the kernel wrote the end ghosts
+	// (see fillHalo)
+	haloStale bool
+	blocks    []*block // the kernel's scratch block of each worker
+	pool      *pool
+	rowSum    []float64 // per-row partial sums for deterministic reductions
+	kernel    func(lo, hi, w int)
+	bodies    []*Boundary // moving bodies, by id
 }
 
 // rowConst holds what the axisymmetric terms need of a row: 1/r and
@@ -91,6 +94,7 @@ func New(cfg Config) (*Solver, error) {
 	s.pool = newPool(cfg.Nr, cfg.threads())
 	s.kernel = s.streamCollideRows
 	s.simd = simdAvailable && !cfg.Portable
+	s.haloStale = true
 	s.blocks = make([]*block, s.Threads())
 	for w := range s.blocks {
 		s.blocks[w] = newBlock()
