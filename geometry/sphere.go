@@ -176,6 +176,22 @@ func (d Domain) AppendLinks(out []lbm.Link, s Sphere, solid func(k, j int) bool)
 	return out
 }
 
+// UpdateFractions recomputes the wall fractions Q of links that
+// AppendLinks found for a sphere, for the sphere s it has moved to, as
+// AppendLinks would: valid while no node changed between inside and
+// outside (the same links exist) and the ends are not periodic (a link's
+// K is then the node AppendLinks measured from, not a periodic image).
+func (d Domain) UpdateFractions(links []lbm.Link, s Sphere) {
+	for x := range links {
+		l := &links[x]
+		q, ok := d.Fraction(s, float64(l.K)+0.5, float64(l.J)+0.5, lbm.Ez[l.Dir], lbm.Er[l.Dir])
+		if !ok {
+			q = 1e-12 // as AppendLinks: the wall at the node within round-off
+		}
+		l.Q = q
+	}
+}
+
 // Within reports whether node (k, j) lies within dist along z of the
 // sphere's centre (nearest periodic image), whatever its row.
 func (d Domain) Within(s Sphere, k int, dist float64) bool {

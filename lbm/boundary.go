@@ -65,6 +65,7 @@ type preparedLink struct {
 	wallTerm float64 // -6 w_i e_iz: Delta = wallTerm * u_wz
 	ez       float64
 	ring     float64 // 2 pi r at the link midpoint (METHODS.md 7.4)
+	q        float64 // the wall fraction the weights are for
 	quad     bool
 }
 
@@ -164,31 +165,90 @@ func (s *Solver) prepare(p *preparedLink, l Link) error {
 	*p = preparedLink{dst: s.idx(kd, jd), src: src, dir: i, opp: o, n1: -1, n2: -1,
 		wallTerm: -6 * W[i] * float64(Ez[i]), ez: float64(Ez[i]),
 		ring: 2 * math.Pi * (s.rows[l.J].r + 0.5*float64(Er[i]))}
-	q := l.Q
+	s.neighbours(p, l)
+	p.weights(l.Q)
+	return nil
+}
+
+// neighbours looks up the fluid values the interpolation of link l reads:
+// for q < 1/2 two nodes behind the fluid node along -e_i, for q >= 1/2 the
+// one behind it in direction opp(i) (Bouzidi, Firdaouss & Lallemand 2001).
+func (s *Solver) neighbours(p *preparedLink, l Link) {
+	i, o := l.Dir, Opp[l.Dir]
 	k1, j1 := l.K-Ez[i], l.J-Er[i]
 	k2, j2 := l.K-2*Ez[i], l.J-2*Er[i]
-	if q < 0.5 {
+	p.n1, p.n2 = -1, -1
+	if l.Q < 0.5 {
 		n1, d1, ok1 := s.fluidAt(k1, j1, i)
 		n2, d2, ok2 := s.fluidAt(k2, j2, i)
 		switch {
 		case ok1 && ok2:
-			p.cA, p.c1, p.c2, p.cw = q*(1+2*q), 1-4*q*q, -q*(1-2*q), 1
 			p.n1, p.d1, p.n2, p.d2 = n1, d1, n2, d2
-			p.quad = true
 		case ok1:
-			p.cA, p.c1, p.cw = 2*q, 1-2*q, 1
 			p.n1, p.d1 = n1, d1
+		}
+		return
+	}
+	if n1, d1, ok1 := s.fluidAt(k1, j1, o); ok1 {
+		p.n1, p.d1 = n1, d1
+	}
+}
+
+// weights sets the interpolation weights of the link for wall fraction q,
+// with the neighbours that neighbours found for a q on the same side of
+// 1/2: quadratic where both (q < 1/2) or the one (q >= 1/2) exist, else
+// linear (Bouzidi, Firdaouss & Lallemand 2001, Phys. Fluids 13, 3452).
+func (p *preparedLink) weights(q float64) {
+	p.q = q
+	p.cA, p.cB, p.c1, p.c2, p.cw, p.quad = 0, 0, 0, 0, 0, false
+	if q < 0.5 {
+		switch {
+		case p.n2 >= 0:
+			p.cA, p.c1, p.c2, p.cw = q*(1+2*q), 1-4*q*q, -q*(1-2*q), 1
+			p.quad = true
+		case p.n1 >= 0:
+			p.cA, p.c1, p.cw = 2*q, 1-2*q, 1
 		default:
 			p.cA, p.cw = 1, 1
 		}
-		return nil
+		return
 	}
-	if n1, d1, ok1 := s.fluidAt(k1, j1, o); ok1 {
+	if p.n1 >= 0 {
 		p.cA, p.cB, p.c1, p.cw = 1/(q*(2*q+1)), (2*q-1)/q, -(2*q-1)/(2*q+1), 1/(q*(2*q+1))
-		p.n1, p.d1 = n1, d1
 		p.quad = true
 	} else {
 		p.cA, p.cB, p.cw = 1/(2*q), (2*q-1)/(2*q), 1/(2*q)
+	}
+}
+
+// UpdateBoundary is SetBoundary for the links last set for body id with
+// only their wall fractions changed (the body moved but no node changed
+// between fluid and solid near it): the neighbours are kept unless a
+// fraction crosses 1/2, and the weights recomputed, which gives the same
+// prepared links as SetBoundary. links must be the same links, in the same
+// order, as last set.
+func (s *Solver) UpdateBoundary(id int, links []Link, vz float64) error {
+	if id < 0 || id >= len(s.bodies) || len(links) != len(s.bodies[id].links) {
+		return fmt.Errorf("lbm: body %d: update of %d links that were not set", id, len(links))
+	}
+	b := s.bodies[id]
+	b.vz = vz
+	b.fallback = 0
+	for x, l := range links {
+		p := &b.links[x]
+		if p.dir != l.Dir || l.J < 0 || l.J >= s.nr || l.K < 0 || l.K >= s.nz || p.src != s.idx(l.K, l.J) {
+			return fmt.Errorf("lbm: body %d: link %d (%d,%d) dir %d is not the one set before", id, x, l.K, l.J, l.Dir)
+		}
+		if !(l.Q > 0 && l.Q <= 1) {
+			return fmt.Errorf("lbm: body %d: link (%d,%d) dir %d q %g: need 0 < q <= 1", id, l.K, l.J, l.Dir, l.Q)
+		}
+		if (l.Q < 0.5) != (p.q < 0.5) {
+			s.neighbours(p, l)
+		}
+		p.weights(l.Q)
+		if !p.quad {
+			b.fallback++
+		}
 	}
 	return nil
 }
@@ -210,39 +270,62 @@ func (s *Solver) prepare(p *preparedLink, l Link) error {
 //
 // With float32 storage the written value is rounded to float32 first and
 // the force uses the rounded value, the one the fluid sees.
+//
+// With several bodies and goroutines, the bodies are shared out among the
+// workers: a body's links write only into its own solid nodes (and the
+// mirror images below the axis of those) and read only fluid nodes, so the
+// bodies do not interact here, and each body's force is still summed over
+// its links in order.
 func (s *Solver) boundaryPass(record bool) {
-	if s.single {
-		boundaryPass(s, &s.a32, record)
-	} else {
-		boundaryPass(s, &s.a, record)
+	if len(s.bodies) > 1 && s.Threads() > 1 {
+		s.pool.runTask(task{s: s, on: record, fn: boundaryTask})
+		return
+	}
+	for id := range s.bodies {
+		s.boundaryBody(id, record)
 	}
 }
 
-func boundaryPass[T real](s *Solver, a *[Q][]T, record bool) {
-	for _, b := range s.bodies {
-		var fz float64
-		uw := b.vz
-		for x := range b.links {
-			p := &b.links[x]
-			fi := float64(a[p.dir][p.src])
-			v := p.cA*fi + p.cw*p.wallTerm*uw
-			if p.cB != 0 {
-				v += p.cB * float64(a[p.opp][p.src])
-			}
-			if p.n1 >= 0 {
-				v += p.c1 * float64(a[p.d1][p.n1])
-			}
-			if p.n2 >= 0 {
-				v += p.c2 * float64(a[p.d2][p.n2])
-			}
-			vt := T(v)
-			a[p.opp][p.dst] = vt
-			v = float64(vt)
-			fz += p.ring * ((fi+v)*p.ez - (fi-v)*uw)
+// boundaryTask is the boundary pass of bodies w, w + workers, ...
+func boundaryTask(t *task, _, _, w int) {
+	s := t.s
+	for id := w; id < len(s.bodies); id += len(s.pool.slabs) {
+		s.boundaryBody(id, t.on)
+	}
+}
+
+// boundaryBody is the boundary pass of body id.
+func (s *Solver) boundaryBody(id int, record bool) {
+	if s.single {
+		boundaryLinks(s.bodies[id], &s.a32, record)
+	} else {
+		boundaryLinks(s.bodies[id], &s.a, record)
+	}
+}
+
+func boundaryLinks[T real](b *Boundary, a *[Q][]T, record bool) {
+	var fz float64
+	uw := b.vz
+	for x := range b.links {
+		p := &b.links[x]
+		fi := float64(a[p.dir][p.src])
+		v := p.cA*fi + p.cw*p.wallTerm*uw
+		if p.cB != 0 {
+			v += p.cB * float64(a[p.opp][p.src])
 		}
-		if record {
-			b.force = fz
+		if p.n1 >= 0 {
+			v += p.c1 * float64(a[p.d1][p.n1])
 		}
+		if p.n2 >= 0 {
+			v += p.c2 * float64(a[p.d2][p.n2])
+		}
+		vt := T(v)
+		a[p.opp][p.dst] = vt
+		v = float64(vt)
+		fz += p.ring * ((fi+v)*p.ez - (fi-v)*uw)
+	}
+	if record {
+		b.force = fz
 	}
 }
 
