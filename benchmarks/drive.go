@@ -152,7 +152,7 @@ func driveTable(w io.Writer, threads []int, dur time.Duration) error {
 	}
 	fmt.Fprintln(w)
 	fmt.Fprintf(w, "Drive step: drive.Simulation.Advance on the embedded demo (grid.cells_per_radius as given), after %d warm-up steps;\n", driveWarmUp)
-	fmt.Fprintf(w, "%d batches of about %v each, the fastest kept and its time per step extrapolated to a period.\n", driveBatches, dur/driveBatches)
+	fmt.Fprintf(w, "%d batches of about %v each, the fastest kept and its time per step extrapolated to a period.\n", driveBatches, (dur / driveBatches).Round(time.Millisecond))
 	fmt.Fprintf(w, "Outside kernel: 1 - (time in the fused stream-and-collide kernel, lbm.Solver.KernelTime) / wall time:\n")
 	fmt.Fprintf(w, "halo, boundary links, bodies, dynamics and the mass keeper (no observers). Allocs: heap allocations per step.\n")
 	return nil

@@ -1,9 +1,6 @@
 package lbm
 
-import (
-	"runtime"
-	"sync/atomic"
-)
+import "sync/atomic"
 
 // pool is a persistent set of goroutines, each owning a fixed slab of rows.
 // A parallel call hands every worker the same function and its slab; no
@@ -26,16 +23,21 @@ type pool struct {
 	parked []atomic.Bool   // worker w is (about to be) parked on wake[w]
 	wake   []chan struct{} // a token wakes a parked worker
 
+	callerParked atomic.Bool   // the caller of run is (about to be) parked on finished
+	finished     chan struct{} // a token wakes it
+
 	// cur is the pass that runTask is running and runCur the function,
 	// made once, that hands it to the workers.
 	cur    task
 	runCur func(lo, hi, w int)
 }
 
-// spinWait is how many times a worker polls the pass counter (with
-// cpuRelax between polls) before it parks: about a millisecond, longer than
-// the serial work between two passes of a step.
-const spinWait = 1 << 14
+// spinWait is how many times a worker polls the pass counter, or the
+// caller the count of running workers, (with cpuRelax between polls) before
+// it parks: about a hundred microseconds, longer than the serial work
+// between two passes of a step, short enough that other processes on the
+// same cores (tests, the points of a sweep) get them back soon.
+const spinWait = 1 << 11
 
 // task is a parallel pass given as a plain function and its arguments
 // rather than as a closure: a closure handed to the workers escapes to the
@@ -64,6 +66,7 @@ func newPool(rows, n int) *pool {
 		p.slabs = append(p.slabs, [2]int{lo, hi})
 	}
 	p.parked = make([]atomic.Bool, n)
+	p.finished = make(chan struct{}, 1)
 	p.wake = make([]chan struct{}, n)
 	p.runCur = func(lo, hi, w int) { p.cur.fn(&p.cur, lo, hi, w) }
 	for w := 1; w < n; w++ {
@@ -101,7 +104,12 @@ func (p *pool) work(w int) {
 			return
 		}
 		p.fn(lo, hi, w)
-		p.left.Add(-1)
+		if p.left.Add(-1) == 0 && p.callerParked.Load() {
+			select {
+			case p.finished <- struct{}{}:
+			default:
+			}
+		}
 	}
 }
 
@@ -118,11 +126,18 @@ func (p *pool) run(fn func(lo, hi, w int)) {
 	p.gen.Add(1)
 	p.wakeParked()
 	fn(p.slabs[0][0], p.slabs[0][1], 0)
-	for spin := 0; p.left.Load() != 0; spin++ {
+	for spin := 0; p.left.Load() != 0 && spin < spinWait; spin++ {
 		cpuRelax()
-		if spin > spinWait {
-			runtime.Gosched() // a worker may have been descheduled
+	}
+	for p.left.Load() != 0 {
+		// Park until the last worker is done, as the workers park (see
+		// work): the flag is set before left is read again, and the last
+		// worker reads the flag after it brought left to zero.
+		p.callerParked.Store(true)
+		if p.left.Load() != 0 {
+			<-p.finished
 		}
+		p.callerParked.Store(false)
 	}
 	p.fn = nil
 }

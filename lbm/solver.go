@@ -200,6 +200,7 @@ func planes[T real](size, shift int) [Q][]T {
 	pad := planePad * 8 / int(unsafe.Sizeof(T(0)))
 	stride := (size+511)/512*512 + pad
 	back := make([]T, Q*stride+shift)
+	adviseHuge(back)
 	var p [Q][]T
 	for i := range p {
 		o := shift + i*stride
