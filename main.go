@@ -44,6 +44,7 @@ func commands() []command {
 		{"verify", "[-full] [-threads N] [-quiet]", "run the verification cases against analytic and published values", cmdVerify},
 		{"cases", "[NAME]", "list the embedded example cases, or print one", cmdCases},
 		{"model", "[-json] CASE.toml", "solve the reduced linear model: sphere and spring amplitudes and phases", cmdModel},
+		{"sweep", "[-out DIR] [-jobs N] SWEEP.toml | -resume DIR", "run every point of a sweep (one or two case keys varied) and write results.csv", cmdSweep},
 		{"help", "", "show this help", nil},
 	}
 }

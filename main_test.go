@@ -211,3 +211,14 @@ func TestCheckListsAllProblems(t *testing.T) {
 		}
 	}
 }
+
+// TestSweepUsage: sweep without a file, or with both a file and -resume,
+// is a usage error (exit status 2) that shows how to call it.
+func TestSweepUsage(t *testing.T) {
+	for _, args := range [][]string{{"sweep"}, {"sweep", "-resume", "x", "y.toml"}} {
+		var out, errb bytes.Buffer
+		if code := dispatch(args, &out, &errb); code != 2 || !strings.Contains(errb.String(), "usage: axiswim sweep") {
+			t.Errorf("%v: exit %d, stderr %q", args, code, errb.String())
+		}
+	}
+}

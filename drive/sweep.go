@@ -1,0 +1,260 @@
+package drive
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"runtime"
+	"strconv"
+	"strings"
+	"sync"
+
+	"axiswim/cases"
+	"axiswim/output"
+)
+
+// SweepOptions are how RunSweep runs the points of a sweep.
+type SweepOptions struct {
+	Out   string    // the sweep directory: one run directory per point and results.csv
+	Jobs  int       // points run at once (0: 1)
+	Cores int       // goroutines shared among the jobs (0: all cores)
+	Log   io.Writer // one line per point started and finished
+}
+
+// SweepResult is one point of a sweep: its values, where it ran, and what
+// its run found (nil Summary when the run failed before it had one).
+type SweepResult struct {
+	Index   int
+	Point   cases.Point
+	Dir     string
+	Summary *Summary
+	Resumed bool   // continued from a checkpoint
+	Skipped bool   // finished by an earlier invocation; nothing was run
+	Err     string // why the run failed, if it did
+}
+
+// PointDir is the run directory of point i of a sweep in out.
+func PointDir(out string, i int) string { return filepath.Join(out, fmt.Sprintf("point_%03d", i+1)) }
+
+// ResultsFile is the table RunSweep writes in the sweep directory.
+const ResultsFile = "results.csv"
+
+// RunSweep runs every point of s as an ordinary run (its own directory,
+// checkpoints and summary) and writes results.csv. Points are run Jobs at
+// a time with Cores/Jobs goroutines each; each point's results are those
+// of the same case run alone, bit for bit, whatever Jobs is (a run does
+// not depend on its number of goroutines). A point whose summary says it
+// completed is not run again, and one with a checkpoint continues from it,
+// so a killed sweep resumes where it stopped. A point that fails is
+// recorded with its error and the others go on; an interruption (ctx)
+// stops every running point at a checkpoint.
+func RunSweep(ctx context.Context, s *cases.Sweep, o SweepOptions) ([]SweepResult, error) {
+	jobs := max(o.Jobs, 1)
+	cores := o.Cores
+	if cores <= 0 {
+		cores = runtime.NumCPU()
+	}
+	threads := max(1, cores/jobs)
+	if err := os.MkdirAll(o.Out, 0o755); err != nil {
+		return nil, fmt.Errorf("sweep directory: %w", err)
+	}
+	log := o.Log
+	if log == nil {
+		log = io.Discard
+	}
+	pts := s.Points()
+	results := make([]SweepResult, len(pts))
+	var mu sync.Mutex // serialises log lines
+	next := make(chan int)
+	var wg sync.WaitGroup
+	for range jobs {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range next {
+				r := runPoint(ctx, s, i, pts[i], o.Out, threads, log, &mu)
+				results[i] = r
+			}
+		}()
+	}
+	for i := range pts {
+		if ctx.Err() != nil {
+			break
+		}
+		next <- i
+	}
+	close(next)
+	wg.Wait()
+	for i := range results {
+		if results[i].Dir == "" { // not started: interrupted before its turn
+			results[i] = SweepResult{Index: i, Point: pts[i], Dir: PointDir(o.Out, i), Err: "not run (the sweep was interrupted)"}
+		}
+	}
+	if err := WriteSweepResults(filepath.Join(o.Out, ResultsFile), s, results); err != nil {
+		return results, err
+	}
+	if ctx.Err() != nil {
+		return results, fmt.Errorf("sweep interrupted: %w", ctx.Err())
+	}
+	return results, nil
+}
+
+// runPoint runs (or resumes, or skips) point i.
+func runPoint(ctx context.Context, s *cases.Sweep, i int, pt cases.Point, out string, threads int, log io.Writer, mu *sync.Mutex) SweepResult {
+	r := SweepResult{Index: i, Point: pt, Dir: PointDir(out, i)}
+	say := func(format string, args ...any) {
+		mu.Lock()
+		defer mu.Unlock()
+		fmt.Fprintf(log, "point %d (%s): %s\n", i+1, s.Label(pt), fmt.Sprintf(format, args...))
+	}
+	if sum, err := ReadSummary(r.Dir); err == nil && sum.Completed {
+		r.Summary, r.Skipped = sum, true
+		say("finished earlier, not run again")
+		return r
+	}
+	_, c, err := s.CaseAt(pt)
+	if err != nil {
+		r.Err = err.Error()
+		say("%v", err)
+		return r
+	}
+	l, err := cases.Resolve(c)
+	if err != nil {
+		r.Err = err.Error()
+		say("%v", err)
+		return r
+	}
+	if _, err := os.Stat(filepath.Join(r.Dir, CheckpointFile)); err == nil {
+		r.Resumed = true
+	}
+	say("%s on %d goroutine(s)", map[bool]string{true: "resuming", false: "running"}[r.Resumed], threads)
+	sum, err := Run(ctx, c, l, Options{Out: r.Dir, Threads: threads, Quiet: true, Log: io.Discard, Resume: r.Resumed})
+	r.Summary = sum
+	switch {
+	case err != nil:
+		r.Err = err.Error()
+		say("failed: %v", err)
+	case sum != nil && sum.Interrupted:
+		r.Err = "interrupted (resume the sweep to continue)"
+		say("interrupted at a checkpoint")
+	default:
+		say("done in %.1f s", sum.WallTime)
+	}
+	return r
+}
+
+// ReadSummary reads summary.json of a run directory.
+func ReadSummary(dir string) (*Summary, error) {
+	data, err := os.ReadFile(filepath.Join(dir, "summary.json"))
+	if err != nil {
+		return nil, err
+	}
+	var sum Summary
+	if err := json.Unmarshal(data, &sum); err != nil {
+		return nil, fmt.Errorf("%s: %w", filepath.Join(dir, "summary.json"), err)
+	}
+	return &sum, nil
+}
+
+// WriteSweepResults writes results.csv: one row per point with the varied
+// values, the dimensionless groups of sphere 1, the mean speed and its
+// uncertainty, whether it converged, the leading sphere, spring 1's
+// extension amplitude and phase, the wall time and the status.
+func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error {
+	var b bytes.Buffer
+	head := []string{"point"}
+	for _, p := range s.Params {
+		head = append(head, p.Key)
+	}
+	head = append(head, "epsilon", "M2", "Re", "Re_s", "mean_speed_m_s", "speed_uncertainty_m_s", "converged",
+		"leading_sphere", "extension_amplitude_m", "extension_phase_deg", "wall_time_s", "status")
+	b.WriteString(strings.Join(head, ",") + "\n")
+	num := func(v float64) string {
+		if math.IsNaN(v) {
+			return ""
+		}
+		return strconv.FormatFloat(v, 'g', 10, 64)
+	}
+	for _, r := range results {
+		row := []string{strconv.Itoa(r.Index + 1)}
+		for _, v := range r.Point {
+			row = append(row, num(v))
+		}
+		nan := math.NaN()
+		eps, m2, re, res := nan, nan, nan, nan
+		speed, unc, amp, ph, wall := nan, nan, nan, nan, nan
+		conv, lead := "", ""
+		if sum := r.Summary; sum != nil {
+			if len(sum.Groups) > 0 {
+				g := sum.Groups[0]
+				eps, m2, re, res = g.Epsilon, g.M2, g.Re, g.ReS
+			}
+			if sum.MeanVelocity != nil {
+				speed = *sum.MeanVelocity
+			}
+			if sum.MeanVelocityUncertainty != nil {
+				unc = *sum.MeanVelocityUncertainty
+			}
+			if sum.Converged != nil {
+				conv = strconv.FormatBool(*sum.Converged)
+			}
+			if sum.LeadingSphere != nil {
+				lead = strconv.Itoa(*sum.LeadingSphere)
+			}
+			for _, cmp := range sum.Comparison {
+				switch cmp.Quantity {
+				case "spring 1 extension amplitude (m)":
+					amp = cmp.Simulated
+				case "spring 1 extension phase (deg)":
+					ph = cmp.Simulated
+				}
+			}
+			wall = sum.WallTime
+		}
+		status := "done"
+		switch {
+		case r.Err != "":
+			status = r.Err
+		case r.Summary == nil || !r.Summary.Completed:
+			status = "not finished"
+		}
+		row = append(row, num(eps), num(m2), num(re), num(res), num(speed), num(unc), conv, lead,
+			num(amp), num(ph), num(wall), csvQuote(status))
+		b.WriteString(strings.Join(row, ",") + "\n")
+	}
+	if err := output.WriteFileAtomic(path, b.Bytes()); err != nil {
+		return fmt.Errorf("write %s: %w", path, err)
+	}
+	return nil
+}
+
+// csvQuote quotes a CSV field when it holds a comma, quote or newline.
+func csvQuote(s string) string {
+	if !strings.ContainsAny(s, ",\"\n") {
+		return s
+	}
+	return `"` + strings.ReplaceAll(s, `"`, `""`) + `"`
+}
+
+// errSweepFailed marks a sweep with failed points.
+var errSweepFailed = errors.New("some points failed")
+
+// SweepFailures returns an error naming the failed points, or nil.
+func SweepFailures(results []SweepResult) error {
+	var bad []string
+	for _, r := range results {
+		if r.Err != "" {
+			bad = append(bad, strconv.Itoa(r.Index+1))
+		}
+	}
+	if len(bad) == 0 {
+		return nil
+	}
+	return fmt.Errorf("%w: point(s) %s (see results.csv and each point's summary.json)", errSweepFailed, strings.Join(bad, ", "))
+}
