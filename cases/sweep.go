@@ -36,6 +36,7 @@ type Sweep struct {
 type Param struct {
 	Key    string
 	Values []float64
+	Log    bool // scale = "log": values spaced logarithmically, drawn on a log axis
 }
 
 // Point is one combination of the varied values, in Params order.
@@ -113,7 +114,7 @@ func ParseSweep(name string, src []byte, dir string) (*Sweep, error) {
 		if _, err := s.apply(cloneTOML(s.base).(map[string]any), p.Key, values[0]); err != nil {
 			return nil, fmt.Errorf("sweep %s: vary %d: %w", name, n+1, err)
 		}
-		s.Params = append(s.Params, Param{Key: p.Key, Values: values})
+		s.Params = append(s.Params, Param{Key: p.Key, Values: values, Log: p.Scale == ScaleLog})
 		total *= len(values)
 	}
 	if len(s.Params) == 2 && s.Params[0].Key == s.Params[1].Key {
@@ -145,12 +146,18 @@ func (p rawParam) values() ([]float64, error) {
 	if p.Key == "" {
 		return nil, fmt.Errorf("key is missing: name the case key to vary, e.g. key = \"shaking.amplitude\"")
 	}
-	rng := p.From != nil || p.To != nil || p.Points != 0 || p.Scale != ""
+	rng := p.From != nil || p.To != nil || p.Points != 0 // scale alone with values: the axis of the pictures
 	switch {
 	case len(p.Values) > 0 && rng:
 		return nil, fmt.Errorf("both values and a range: give one of them")
 	case len(p.Values) > 0:
+		if p.Scale != "" && p.Scale != ScaleLinear && p.Scale != ScaleLog {
+			return nil, fmt.Errorf("scale = %q: use %q or %q", p.Scale, ScaleLinear, ScaleLog)
+		}
 		for _, v := range p.Values {
+			if p.Scale == ScaleLog && !(v > 0) {
+				return nil, fmt.Errorf("value %g with scale = \"log\": values must be positive", v)
+			}
 			if math.IsNaN(v) || math.IsInf(v, 0) {
 				return nil, fmt.Errorf("value %g: must be finite", v)
 			}
@@ -233,7 +240,7 @@ func (s *Sweep) Label(pt Point) string {
 	var parts []string
 	for i, p := range s.Params {
 		if i < len(pt) {
-			parts = append(parts, fmt.Sprintf("%s=%g", p.Key, pt[i]))
+			parts = append(parts, fmt.Sprintf("%s=%.4g", p.Key, pt[i]))
 		}
 	}
 	return strings.Join(parts, ", ")
@@ -367,6 +374,9 @@ func (s *Sweep) WriteFiles(dir string, write func(path string, data []byte) erro
 			}
 		}
 		fmt.Fprintf(&b, "\n[[vary]]\nkey = %s\nvalues = [%s]\n", strconv.Quote(p.Key), strings.Join(vals, ", "))
+		if p.Log {
+			fmt.Fprintf(&b, "scale = %q\n", ScaleLog)
+		}
 	}
 	if err := write(filepath.Join(dir, "base.toml"), base.Bytes()); err != nil {
 		return err

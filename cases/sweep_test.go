@@ -79,3 +79,25 @@ func TestSweepErrors(t *testing.T) {
 		}
 	}
 }
+
+// TestExampleSweep: the sweep shipped in cases/sweeps reads and its points
+// are valid cases.
+func TestExampleSweep(t *testing.T) {
+	s, err := LoadSweep("sweeps/amplitude.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	pts := s.Points()
+	if len(pts) != 5 || pts[0][0] != 5e-5 || pts[4][0] != 4e-4 || !s.Params[0].Log {
+		t.Fatalf("points %v", pts)
+	}
+	for _, pt := range pts {
+		_, c, err := s.CaseAt(pt)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if _, err := Resolve(c); err != nil {
+			t.Errorf("point %s: %v", s.Label(pt), err)
+		}
+	}
+}

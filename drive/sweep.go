@@ -46,7 +46,7 @@ func PointDir(out string, i int) string { return filepath.Join(out, fmt.Sprintf(
 const ResultsFile = "results.csv"
 
 // RunSweep runs every point of s as an ordinary run (its own directory,
-// checkpoints and summary) and writes results.csv. Points are run Jobs at
+// checkpoints and summary) and writes results.csv and the speed pictures. Points are run Jobs at
 // a time with Cores/Jobs goroutines each; each point's results are those
 // of the same case run alone, bit for bit, whatever Jobs is (a run does
 // not depend on its number of goroutines). A point whose summary says it
@@ -97,6 +97,9 @@ func RunSweep(ctx context.Context, s *cases.Sweep, o SweepOptions) ([]SweepResul
 		}
 	}
 	if err := WriteSweepResults(filepath.Join(o.Out, ResultsFile), s, results); err != nil {
+		return results, err
+	}
+	if err := WriteSweepPictures(o.Out, s, results); err != nil {
 		return results, err
 	}
 	if ctx.Err() != nil {
@@ -257,4 +260,59 @@ func SweepFailures(results []SweepResult) error {
 		return nil
 	}
 	return fmt.Errorf("%w: point(s) %s (see results.csv and each point's summary.json)", errSweepFailed, strings.Join(bad, ", "))
+}
+
+// WriteSweepPictures draws the mean speed of the points with its error bar
+// against the first varied key (one line per value of the second), as
+// speed.png, and against the streaming Reynolds number of sphere 1 as
+// speed_re_s.png, in the sweep directory. Points without a speed are left
+// out; with fewer than two points nothing is drawn.
+func WriteSweepPictures(dir string, s *cases.Sweep, results []SweepResult) error {
+	type pt struct{ x, res, v, e float64 }
+	lines := map[float64][]pt{}
+	var order []float64
+	n := 0
+	for _, r := range results {
+		sum := r.Summary
+		if sum == nil || sum.MeanVelocity == nil || sum.MeanVelocityUncertainty == nil || len(sum.Groups) == 0 {
+			continue
+		}
+		key := 0.0
+		if len(r.Point) > 1 {
+			key = r.Point[1]
+		}
+		if _, ok := lines[key]; !ok {
+			order = append(order, key)
+		}
+		lines[key] = append(lines[key], pt{r.Point[0], sum.Groups[0].ReS, *sum.MeanVelocity, *sum.MeanVelocityUncertainty})
+		n++
+	}
+	if n < 2 {
+		return nil
+	}
+	var byKey, byRe []output.Line
+	for _, key := range order {
+		label := ""
+		if len(s.Params) > 1 {
+			label = fmt.Sprintf("%s = %g", s.Params[1].Key, key)
+		}
+		var l1, l2 output.Line
+		l1.Label, l2.Label, l1.Points, l2.Points = label, label, true, true
+		for _, p := range lines[key] {
+			l1.X, l1.Y, l1.YErr = append(l1.X, p.x), append(l1.Y, p.v), append(l1.YErr, p.e)
+			l2.X, l2.Y, l2.YErr = append(l2.X, p.res), append(l2.Y, p.v), append(l2.YErr, p.e)
+		}
+		byKey, byRe = append(byKey, l1), append(byRe, l2)
+	}
+	title := s.Title
+	if title == "" {
+		title = "sweep " + s.Name
+	}
+	logX := s.Params[0].Log
+	if err := output.WriteChartPNGWith(filepath.Join(dir, "speed.png"), title, s.Params[0].Key,
+		"mean speed (m/s)", byKey, output.ChartOptions{LogX: logX}); err != nil {
+		return err
+	}
+	return output.WriteChartPNGWith(filepath.Join(dir, "speed_re_s.png"), title, "Re_s = A^2 omega/nu, sphere 1",
+		"mean speed (m/s)", byRe, output.ChartOptions{LogX: logX})
 }

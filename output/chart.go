@@ -21,6 +21,43 @@ type Line struct {
 	Label  string
 	X, Y   []float64
 	Points bool
+	// YErr, when given, draws error bars of +- YErr[k] at each point.
+	YErr []float64
+}
+
+// ChartOptions are the less common choices of a chart.
+type ChartOptions struct {
+	LogX bool // logarithmic x axis (every x must be positive)
+}
+
+// WriteChartPNGWith is WriteChartPNG with options.
+func WriteChartPNGWith(path, title, xlabel, ylabel string, lines []Line, o ChartOptions) error {
+	p, err := chart(title, xlabel, ylabel, lines)
+	if err != nil {
+		return fmt.Errorf("chart %s: %w", path, err)
+	}
+	if o.LogX {
+		lo, hi := math.Inf(1), 0.0
+		for _, l := range lines {
+			for _, x := range l.X {
+				if !(x > 0) {
+					return fmt.Errorf("chart %s: x = %g on a logarithmic axis", path, x)
+				}
+				lo, hi = math.Min(lo, x), math.Max(hi, x)
+			}
+		}
+		p.X.Scale = plot.LogScale{}
+		if hi >= 10*lo { // ticks at the decades; within one, the default ones
+			p.X.Tick.Marker = plot.LogTicks{Prec: -1}
+		}
+	}
+	return writeChart(path, p)
+}
+
+// errPoints are the points and error bars of a Line.
+type errPoints struct {
+	plotter.XYs
+	plotter.YErrors
 }
 
 // The size of a chart: 16 x 10 cm at 100 dots per inch, 630 x 394 pixels.
@@ -39,6 +76,10 @@ func WriteChartPNG(path, title, xlabel, ylabel string, lines []Line) error {
 	if err != nil {
 		return fmt.Errorf("chart %s: %w", path, err)
 	}
+	return writeChart(path, p)
+}
+
+func writeChart(path string, p *plot.Plot) error {
 	c := vgimg.NewWith(vgimg.UseWH(ChartWidth, ChartHeight), vgimg.UseDPI(ChartDPI))
 	p.Draw(draw.New(c))
 	var buf bytes.Buffer
@@ -95,6 +136,24 @@ func chart(title, xlabel, ylabel string, lines []Line) (*plot.Plot, error) {
 			marks.Radius = vg.Points(2.5)
 			p.Add(marks)
 			thumbs = append(thumbs, marks)
+		}
+		if l.YErr != nil {
+			if len(l.YErr) != len(xy) {
+				return nil, fmt.Errorf("%s has %d points and %d error bars", name, len(xy), len(l.YErr))
+			}
+			errs := make(plotter.YErrors, len(xy))
+			for k, e := range l.YErr {
+				if math.IsNaN(e) || math.IsInf(e, 0) || e < 0 {
+					return nil, fmt.Errorf("%s: error bar %d (%g) is not a finite size", name, k+1, e)
+				}
+				errs[k].Low, errs[k].High = e, e
+			}
+			bars, err := plotter.NewYErrorBars(errPoints{xy, errs})
+			if err != nil {
+				return nil, fmt.Errorf("%s: %w", name, err)
+			}
+			bars.Color = line.Color
+			p.Add(bars)
 		}
 		if l.Label != "" {
 			p.Legend.Add(l.Label, thumbs...)
