@@ -103,6 +103,109 @@
 	VSUBPD Z21, Z18, Z18; \
 	ST(Z18, Y18, qj)
 
+// MOMENTS streams the nine populations in (pointers from block_src, LD
+// masked by K1) and forms the moments and the first guess of gather:
+// drho0 Z0, j_z Z1, j_r Z2, 1/(1 + drho0) Z9, m_z Z5, m_r Z6, and keeps
+// s24 Z20, s57 Z21, s68 Z3 and s5678 Z17 for the axisymmetric terms. Needs
+// 1 in Z31; scratch Z4, Z12-Z19. Used by gatherSIMD and planarSIMD.
+#define MOMENTS \
+	SRC(0, AX); \
+	SRC(1, BX); \
+	SRC(2, SI); \
+	SRC(3, R8); \
+	SRC(4, R9); \
+	SRC(5, R10); \
+	SRC(6, R11); \
+	SRC(7, R12); \
+	SRC(8, R13); \
+	LD(BX, Z12); \
+	LD(R8, Z13); \
+	LD(SI, Z14); \
+	LD(R9, Z15); \
+	LD(R10, Z16); \
+	LD(R12, Z17); \
+	LD(R11, Z18); \
+	LD(R13, Z19); \
+	VADDPD Z15, Z14, Z20; \
+	VADDPD Z17, Z16, Z21; \
+	VADDPD Z19, Z18, Z3; \
+	VSUBPD Z17, Z16, Z16; \
+	VSUBPD Z19, Z18, Z18; \
+	VADDPD Z3, Z21, Z17; \
+	VADDPD Z13, Z12, Z19; \
+	VADDPD Z20, Z19, Z19; \
+	LD(AX, Z4); \
+	VADDPD Z4, Z19, Z19; \
+	VADDPD Z17, Z19, Z0; \
+	VSUBPD Z13, Z12, Z12; \
+	VSUBPD Z18, Z16, Z13; \
+	VADDPD Z13, Z12, Z1; \
+	VSUBPD Z15, Z14, Z14; \
+	VADDPD Z18, Z16, Z15; \
+	VADDPD Z15, Z14, Z2; \
+	VADDPD Z0, Z31, Z9; \
+	VDIVPD Z9, Z31, Z9; \
+	VADDPD.BCST K(consts_hgz), Z1, Z5; \
+	VADDPD.BCST K(consts_hgr), Z2, Z6
+
+// COLLIDE is rest followed by the pairs (collideTRT's arithmetic, see
+// kernel.go) from drho Z0, 1/rho Z1, m_z Z5, m_r Z6, F_z Z10, F_r Z11 and
+// theta Z12, into the populations at block_dst (ST masked by K1). Needs the
+// rest constants in Z25-Z31 (collideSIMD's). Used by collideSIMD and
+// planarSIMD.
+#define COLLIDE \
+	VADDPD Z0, Z31, Z2; \
+	VMULPD Z5, Z1, Z3; \
+	VMULPD Z6, Z1, Z4; \
+	VMULPD Z3, Z3, Z5; \
+	VMULPD Z4, Z4, Z6; \
+	VADDPD Z6, Z5, Z5; \
+	VMULPD Z30, Z2, Z6; \
+	VMULPD Z5, Z6, Z6; \
+	VSUBPD Z6, Z0, Z6; \
+	VMULPD Z10, Z3, Z7; \
+	VMULPD Z11, Z4, Z8; \
+	VADDPD Z8, Z7, Z7; \
+	VMULPD Z29, Z7, Z7; \
+	VSUBPD Z7, Z12, Z7; \
+	VMULPD Z28, Z2, Z9; \
+	SRC(0, AX); \
+	DST(0, BX); \
+	LD(AX, Z12); \
+	VMULPD Z26, Z6, Z13; \
+	VSUBPD Z13, Z12, Z13; \
+	VMULPD Z27, Z13, Z13; \
+	VSUBPD Z13, Z12, Z13; \
+	VMULPD Z25, Z7, Z14; \
+	VADDPD Z14, Z13, Z13; \
+	ST(Z13, Y13, BX); \
+	VMULPD.BCST (block_axis+pairRates_w6)(DI), Z2, Z15; \
+	SRC(1, AX); \
+	SRC(3, BX); \
+	DST(1, SI); \
+	DST(3, R8); \
+	PAIR(block_axis, Z3, Z10, Z15, AX, BX, SI, R8); \
+	SRC(2, AX); \
+	SRC(4, BX); \
+	DST(2, SI); \
+	DST(4, R8); \
+	PAIR(block_axis, Z4, Z11, Z15, AX, BX, SI, R8); \
+	VMULPD.BCST (block_diag+pairRates_w6)(DI), Z2, Z15; \
+	VADDPD Z4, Z3, Z12; \
+	VADDPD Z11, Z10, Z13; \
+	SRC(5, AX); \
+	SRC(7, BX); \
+	DST(5, SI); \
+	DST(7, R8); \
+	PAIR(block_diag, Z12, Z13, Z15, AX, BX, SI, R8); \
+	VSUBPD Z3, Z4, Z12; \
+	VSUBPD Z10, Z11, Z13; \
+	SRC(6, AX); \
+	SRC(8, BX); \
+	DST(6, SI); \
+	DST(8, R8); \
+	PAIR(block_diag, Z12, Z13, Z15, AX, BX, SI, R8)
+
 // LD loads eight populations at (p)(CX*8) into z, masked by K1; ST stores
 // z (whose lower half is y) there. Here for float64; for float32 below.
 #define LD(p, z) VMOVUPD.Z (p)(CX*8), K1, z

@@ -30,46 +30,8 @@ gloop_tail:
 	KMOVW block_tail(DI), K1
 
 gloop_go:
-	SRC(0, AX)
-	SRC(1, BX)
-	SRC(2, SI)
-	SRC(3, R8)
-	SRC(4, R9)
-	SRC(5, R10)
-	SRC(6, R11)
-	SRC(7, R12)
-	SRC(8, R13)
-	LD(BX, Z12) // d1
-	LD(R8, Z13) // d3
-	LD(SI, Z14) // d2
-	LD(R9, Z15) // d4
-	LD(R10, Z16) // d5
-	LD(R12, Z17) // d7
-	LD(R11, Z18) // d6
-	LD(R13, Z19) // d8
-	VADDPD Z15, Z14, Z20 // s24
-	VADDPD Z17, Z16, Z21 // s57
-	VADDPD Z19, Z18, Z22 // s68
-	VSUBPD Z17, Z16, Z16 // m57
-	VSUBPD Z19, Z18, Z18 // m68
-	VADDPD Z22, Z21, Z17 // s5678
-	VADDPD Z13, Z12, Z19 // d1 + d3
-	VADDPD Z20, Z19, Z19 // + s24
-	LD(AX, Z3) // d0
-	VADDPD Z3, Z19, Z19 // d0 + (...)
-	VADDPD Z17, Z19, Z0 // drho0 = (...) + s5678
-	VSUBPD Z13, Z12, Z12 // d1 - d3
-	VSUBPD Z18, Z16, Z13 // m57 - m68
-	VADDPD Z13, Z12, Z1 // j_z
-	VSUBPD Z15, Z14, Z14 // d2 - d4
-	VADDPD Z18, Z16, Z15 // m57 + m68
-	VADDPD Z15, Z14, Z2 // j_r
-	// First guess: rho = 1 + drho0, m = j + G/2, F = G, theta = 0.
-	VADDPD Z0, Z31, Z9
-	VDIVPD Z9, Z31, Z9
+	MOMENTS
 	VMOVAPD Z0, Z11
-	VADDPD.BCST K(consts_hgz), Z1, Z5
-	VADDPD.BCST K(consts_hgr), Z2, Z6
 	VBROADCASTSD K(consts_gz), Z7
 	VBROADCASTSD K(consts_gr), Z8
 	VPXORQ Z10, Z10, Z10
@@ -77,7 +39,7 @@ gloop_go:
 	TESTQ R13, R13
 	JZ gstore
 	// The parts that do not change from pass to pass.
-	VSUBPD Z22, Z21, Z12 // s57 - s68
+	VSUBPD Z3, Z21, Z12 // s57 - s68
 	VMULPD Z27, Z12, Z12
 	VSUBPD Z12, Z7, Z3 // G_z = g_z - c R Pi_zr
 	VADDPD Z17, Z20, Z12 // s24 + s5678
