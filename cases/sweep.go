@@ -308,6 +308,7 @@ func (s *Sweep) apply(data map[string]any, key string, v float64) (map[string]an
 		if ke, ok := err.(KeyErrors); ok {
 			for _, e := range ke {
 				if e.Key == full {
+					e.Line, e.File = 0, "" // lines of the case as rewritten, not of a user's file
 					return nil, fmt.Errorf("key %q: %w", key, e)
 				}
 			}
