@@ -7,6 +7,7 @@ require (
 	github.com/schollz/progressbar/v3 v3.19.1
 	golang.org/x/sys v0.46.0
 	golang.org/x/term v0.44.0
+	gonum.org/v1/gonum v0.16.0
 	gonum.org/v1/plot v0.17.0
 )
 

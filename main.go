@@ -9,6 +9,10 @@
 //	axiswim verify [-full]
 //	axiswim cases [NAME]
 //	axiswim model [-json] CASE.toml
+//	axiswim sweep [-out DIR] [-jobs N] SWEEP.toml
+//	axiswim sweep -resume DIR
+//	axiswim onset [-param KEY] [-between LO,HI] [-tol F] [-floor M/S] [-jobs N] CASE.toml
+//	axiswim onset -resume DIR
 //	axiswim help
 package main
 
@@ -45,6 +49,7 @@ func commands() []command {
 		{"cases", "[NAME]", "list the embedded example cases, or print one", cmdCases},
 		{"model", "[-json] CASE.toml", "solve the reduced linear model: sphere and spring amplitudes and phases", cmdModel},
 		{"sweep", "[-out DIR] [-jobs N] SWEEP.toml | -resume DIR", "run every point of a sweep (one or two case keys varied) and write results.csv", cmdSweep},
+		{"onset", "[-param KEY] [-between LO,HI] CASE.toml", "find the onset of swimming in one key by bisection; fit a power law and a threshold law", cmdOnset},
 		{"help", "", "show this help", nil},
 	}
 }

@@ -222,3 +222,23 @@ func TestSweepUsage(t *testing.T) {
 		}
 	}
 }
+
+// TestOnsetUsage: a bad onset command line is refused with the fix.
+func TestOnsetUsage(t *testing.T) {
+	for _, c := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"onset"}, "usage: axiswim onset"},
+		{[]string{"onset", "-between", "1e-4", "testdata/small-swimmer.toml"}, "write two numbers LO,HI"},
+		{[]string{"onset", "-between", "4e-4,1e-4", "testdata/small-swimmer.toml"}, "give LO < HI"},
+		{[]string{"onset", "-param", "fluid.viscosity", "testdata/small-swimmer.toml"}, "needs -between"},
+		{[]string{"onset", "-scale", "cubic", "testdata/small-swimmer.toml"}, "use log or linear"},
+		{[]string{"onset", "-tol", "2", "testdata/small-swimmer.toml"}, "relative bracket width"},
+	} {
+		var out, errb bytes.Buffer
+		if code := dispatch(c.args, &out, &errb); code != exitUsage || !strings.Contains(errb.String(), c.want) {
+			t.Errorf("%v: exit %d, stderr %q, want %q", c.args, code, errb.String(), c.want)
+		}
+	}
+}

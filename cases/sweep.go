@@ -6,6 +6,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -88,7 +89,6 @@ func ParseSweep(name string, src []byte, dir string) (*Sweep, error) {
 	if un := md.Undecoded(); len(un) > 0 {
 		return nil, fmt.Errorf("sweep %s: unknown key %q: the keys are title, base and [[vary]] with key, values or from/to/points/scale", name, un[0].String())
 	}
-	s := &Sweep{Title: raw.Title, Name: name, Base: raw.Base}
 	if raw.Base == "" {
 		return nil, fmt.Errorf("sweep %s: base is missing: give the case file to vary (base = \"case.toml\") or an embedded case name (base = \"demo\")", name)
 	}
@@ -96,12 +96,11 @@ func ParseSweep(name string, src []byte, dir string) (*Sweep, error) {
 	if err != nil {
 		return nil, fmt.Errorf("sweep %s: base = %q: %w", name, raw.Base, err)
 	}
-	if _, err := Parse(raw.Base, caseSrc); err != nil {
-		return nil, fmt.Errorf("sweep %s: base case: %w", name, err)
+	s, err := newSweep(name, raw.Base, caseSrc)
+	if err != nil {
+		return nil, err
 	}
-	if _, err := toml.Decode(string(caseSrc), &s.base); err != nil {
-		return nil, fmt.Errorf("sweep %s: base case: %w", name, err)
-	}
+	s.Title = raw.Title
 	if len(raw.Vary) == 0 || len(raw.Vary) > 2 {
 		return nil, fmt.Errorf("sweep %s: %d [[vary]] tables: give one or two", name, len(raw.Vary))
 	}
@@ -122,6 +121,41 @@ func ParseSweep(name string, src []byte, dir string) (*Sweep, error) {
 	}
 	if total > maxSweepPoints {
 		return nil, fmt.Errorf("sweep %s: %d points, more than %d: use fewer values", name, total, maxSweepPoints)
+	}
+	return s, nil
+}
+
+// NewSweep makes a sweep of the case caseSrc (TOML; base names where it
+// came from) with one or two keys varied, as a sweep file would: each key
+// is checked against the case, each value list must be non-empty.
+func NewSweep(name, base string, caseSrc []byte, params ...Param) (*Sweep, error) {
+	s, err := newSweep(name, base, caseSrc)
+	if err != nil {
+		return nil, err
+	}
+	if len(params) == 0 || len(params) > 2 {
+		return nil, fmt.Errorf("sweep %s: %d keys varied: give one or two", name, len(params))
+	}
+	for _, p := range params {
+		if len(p.Values) == 0 {
+			return nil, fmt.Errorf("sweep %s: key %q has no values", name, p.Key)
+		}
+		if _, err := s.apply(cloneTOML(s.base).(map[string]any), p.Key, p.Values[0]); err != nil {
+			return nil, fmt.Errorf("sweep %s: %w", name, err)
+		}
+		s.Params = append(s.Params, Param{Key: p.Key, Values: slices.Clone(p.Values), Log: p.Log})
+	}
+	return s, nil
+}
+
+// newSweep checks the base case and keeps it as TOML data.
+func newSweep(name, base string, caseSrc []byte) (*Sweep, error) {
+	s := &Sweep{Name: name, Base: base}
+	if _, err := Parse(base, caseSrc); err != nil {
+		return nil, fmt.Errorf("sweep %s: base case: %w", name, err)
+	}
+	if _, err := toml.Decode(string(caseSrc), &s.base); err != nil {
+		return nil, fmt.Errorf("sweep %s: base case: %w", name, err)
 	}
 	return s, nil
 }

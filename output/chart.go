@@ -21,6 +21,7 @@ type Line struct {
 	Label  string
 	X, Y   []float64
 	Points bool
+	NoLine bool // markers only (measured points, say)
 	// YErr, when given, draws error bars of +- YErr[k] at each point.
 	YErr []float64
 }
@@ -28,14 +29,19 @@ type Line struct {
 // ChartOptions are the less common choices of a chart.
 type ChartOptions struct {
 	LogX bool // logarithmic x axis (every x must be positive)
+	LogY bool // logarithmic y axis (every y must be positive)
+	// LegendLeft puts the legend top left (for curves that rise to the
+	// right), not top right.
+	LegendLeft bool
 }
 
 // WriteChartPNGWith is WriteChartPNG with options.
 func WriteChartPNGWith(path, title, xlabel, ylabel string, lines []Line, o ChartOptions) error {
-	p, err := chart(title, xlabel, ylabel, lines)
+	p, err := chart(title, xlabel, ylabel, lines, o.LogY)
 	if err != nil {
 		return fmt.Errorf("chart %s: %w", path, err)
 	}
+	p.Legend.Left = o.LegendLeft
 	if o.LogX {
 		lo, hi := math.Inf(1), 0.0
 		for _, l := range lines {
@@ -48,7 +54,22 @@ func WriteChartPNGWith(path, title, xlabel, ylabel string, lines []Line, o Chart
 		}
 		p.X.Scale = plot.LogScale{}
 		if hi >= 10*lo { // ticks at the decades; within one, the default ones
-			p.X.Tick.Marker = plot.LogTicks{Prec: -1}
+			p.X.Tick.Marker = plot.LogTicks{Prec: 1}
+		}
+	}
+	if o.LogY {
+		lo, hi := math.Inf(1), 0.0
+		for _, l := range lines {
+			for _, y := range l.Y {
+				if !(y > 0) {
+					return fmt.Errorf("chart %s: y = %g on a logarithmic axis", path, y)
+				}
+				lo, hi = math.Min(lo, y), math.Max(hi, y)
+			}
+		}
+		p.Y.Scale = plot.LogScale{}
+		if hi >= 10*lo {
+			p.Y.Tick.Marker = plot.LogTicks{Prec: 1}
 		}
 	}
 	return writeChart(path, p)
@@ -72,11 +93,7 @@ const (
 // Each line gets its own colour (and marker shape). The file is written
 // atomically.
 func WriteChartPNG(path, title, xlabel, ylabel string, lines []Line) error {
-	p, err := chart(title, xlabel, ylabel, lines)
-	if err != nil {
-		return fmt.Errorf("chart %s: %w", path, err)
-	}
-	return writeChart(path, p)
+	return WriteChartPNGWith(path, title, xlabel, ylabel, lines, ChartOptions{})
 }
 
 func writeChart(path string, p *plot.Plot) error {
@@ -89,7 +106,7 @@ func writeChart(path string, p *plot.Plot) error {
 	return WriteFileAtomic(path, buf.Bytes())
 }
 
-func chart(title, xlabel, ylabel string, lines []Line) (*plot.Plot, error) {
+func chart(title, xlabel, ylabel string, lines []Line, logY bool) (*plot.Plot, error) {
 	if len(lines) == 0 {
 		return nil, errors.New("no lines to draw")
 	}
@@ -124,9 +141,12 @@ func chart(title, xlabel, ylabel string, lines []Line) (*plot.Plot, error) {
 		}
 		line.Color = plotutil.Color(i)
 		line.Width = vg.Points(1.5)
-		p.Add(line)
-		thumbs := []plot.Thumbnailer{line}
-		if l.Points {
+		var thumbs []plot.Thumbnailer
+		if !l.NoLine {
+			p.Add(line)
+			thumbs = append(thumbs, line)
+		}
+		if l.Points || l.NoLine {
 			marks, err := plotter.NewScatter(xy)
 			if err != nil {
 				return nil, fmt.Errorf("%s: %w", name, err)
@@ -147,6 +167,9 @@ func chart(title, xlabel, ylabel string, lines []Line) (*plot.Plot, error) {
 					return nil, fmt.Errorf("%s: error bar %d (%g) is not a finite size", name, k+1, e)
 				}
 				errs[k].Low, errs[k].High = e, e
+				if logY { // a bar reaching zero stops short of it on a log axis
+					errs[k].Low = math.Min(e, 0.999*xy[k].Y)
+				}
 			}
 			bars, err := plotter.NewYErrorBars(errPoints{xy, errs})
 			if err != nil {
