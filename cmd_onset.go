@@ -42,7 +42,7 @@ func cmdOnset(args []string, stdout, stderr io.Writer) error {
 	quiet := fs.Bool("quiet", false, "no line per run on stderr")
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "usage: axiswim onset [-param KEY] [-between LO,HI] [-tol F] [-floor M/S] [-jobs N] [-out DIR] CASE.toml")
-		fmt.Fprintln(stderr, "       axiswim onset -resume DIR [-jobs N] [-threads N]")
+		fmt.Fprintln(stderr, "       axiswim onset -resume DIR [-threads N]")
 		fmt.Fprintln(stderr, "Finds where the swimmer starts to swim as KEY grows (or falls): a scan across the bracket, then")
 		fmt.Fprintln(stderr, "bisection of the change from not swimming to swimming, then a power law and a threshold law")
 		fmt.Fprintln(stderr, "fitted to the speeds, and which one the data support. CASE may be an embedded case name.")

@@ -47,6 +47,10 @@ type runState struct {
 	// byte lengths of the CSV files at the checkpoint
 	SeriesBytes, PeriodsBytes int64
 	NextSample                int
+	// Warm is how the run started (nil: from rest, no warm start asked).
+	Warm *WarmStart
+	// WarmDrive is the drive the ramp of a warm start starts from.
+	WarmDrive *Shaker
 }
 
 type bodyState struct {

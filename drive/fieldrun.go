@@ -38,7 +38,7 @@ func newFieldRecorder(sim *Simulation, dir string) *fieldRecorder {
 	P := l.Steps / l.StepsPerPeriod
 	r := &fieldRecorder{sim: sim, dir: dir, spp: l.StepsPerPeriod, periods: P,
 		phases: c.Output.SnapshotsPerPeriod}
-	r.avgStart = analysisStart(P, rampPeriods(c))
+	r.avgStart = analysisStart(P, sim.skipPeriods())
 	if n := c.Output.AveragePeriods; n > 0 {
 		r.avgStart = max(0, P-n)
 	}

@@ -100,7 +100,7 @@ func writeCharts(dir string, sim *Simulation, h *history, tr *periodTracker) err
 		return err
 	}
 	var pp, run, per []float64
-	skip := rampPeriods(sim.Case)
+	skip := sim.skipPeriods()
 	for p := 3; p < len(tr.Centroids); p++ {
 		sp := SwimmingSpeed(tr.Centroids[:p+1], T, skip)
 		pp = append(pp, float64(p))

@@ -34,6 +34,13 @@ type Options struct {
 	// StopAfter, when positive, stops the run after that many steps as
 	// if it had been interrupted (for tests).
 	StopAfter int64
+	// SaveFinal keeps the state at the end of a completed run in
+	// final.bin, for warm starts of other runs.
+	SaveFinal bool
+	// WarmFrom, when set, starts the run from the final state of the run
+	// in that directory where their lattices agree (see WarmStart); the
+	// summary records whether it did.
+	WarmFrom string
 }
 
 // Summary is what summary.json records about a run.
@@ -66,6 +73,7 @@ type Summary struct {
 	Lattice       LatticeSummary `json:"lattice"`
 	MaxMach       float64        `json:"max_mach"`
 	FinalMaxSpeed float64        `json:"final_max_speed_m_s"`
+	WarmStart     *WarmStart     `json:"warm_start,omitempty"`
 	MaxMassDrift  float64        `json:"max_mass_drift"`
 	MassCorrected float64        `json:"mass_correction_applied,omitempty"`
 	Warnings      []string       `json:"warnings"`
@@ -168,9 +176,18 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 		return nil, err
 	}
 	defer sim.Close()
-	if resume != nil {
+	var warm *WarmStart
+	switch {
+	case resume != nil:
 		if err := sim.restore(resume); err != nil {
 			return nil, fmt.Errorf("resume %s: %w", opt.Out, err)
+		}
+		if warm = resume.Warm; warm != nil && warm.Used {
+			sim.warm, sim.Shaker.From = true, resume.WarmDrive
+		}
+	case opt.WarmFrom != "":
+		if warm, err = sim.warmStart(opt.WarmFrom); err != nil {
+			return nil, err
 		}
 	}
 
@@ -180,6 +197,10 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 		Groups:   c.Groups(l),
 		Lattice: LatticeSummary{Nz: l.Nz, Nr: l.Nr, CellSize: l.Dx, TimeStep: l.Dt, Tau: l.Tau,
 			StepsPerPeriod: l.StepsPerPeriod, Bound: l.Bound, Threads: sim.Fluid.Threads()},
+		WarmStart: warm,
+	}
+	if warm != nil && !warm.Used {
+		sum.Warnings = append(sum.Warnings, "started from rest, not from "+warm.From+": "+warm.Reason)
 	}
 	openSeries := func(name string, cols []output.Column, offset int64) (*output.Series, error) {
 		if resume != nil {
@@ -266,7 +287,7 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 		if tracker == nil || len(tracker.Centroids) < 3 {
 			return ""
 		}
-		sp := SwimmingSpeed(tracker.Centroids, float64(l.StepsPerPeriod)*l.Dt, rampPeriods(c))
+		sp := SwimmingSpeed(tracker.Centroids, float64(l.StepsPerPeriod)*l.Dt, sim.skipPeriods())
 		return fmt.Sprintf("mean speed %.3g +- %.2g m/s", sp.Mean, sp.Uncertainty)
 	}
 	nextSample := 0
@@ -285,8 +306,8 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 			fields.restore(resume.Fields)
 		}
 	}
-	save := func() error {
-		st := &runState{Hist: hist, NextSample: nextSample,
+	save := func(path string) error {
+		st := &runState{Hist: hist, NextSample: nextSample, Warm: warm, WarmDrive: sim.Shaker.From,
 			Summary: summaryState{MaxMach: sum.MaxMach, MaxMassDrift: sum.MaxMassDrift, FinalMaxSpeed: sum.FinalMaxSpeed}}
 		sim.capture(st)
 		var err error
@@ -304,20 +325,20 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 		if fields != nil {
 			st.Fields = fields.capture()
 		}
-		return writeCheckpoint(ckPath, caseHash, st)
+		return writeCheckpoint(path, caseHash, st)
 	}
 	lastSave := time.Now()
 loop:
 	for sum.Failure == "" && sim.Step() < int64(l.Steps) {
 		if ctx.Err() != nil || (opt.StopAfter > 0 && sim.Step() >= opt.StopAfter) {
 			sum.Interrupted = true
-			keep(save())
+			keep(save(ckPath))
 			break
 		}
 		if l.StepsPerPeriod > 0 && sim.Step() > 0 && sim.Step()%int64(l.StepsPerPeriod) == 0 {
 			p := sim.Step() / int64(l.StepsPerPeriod)
 			if time.Since(lastSave) >= every || (opt.CheckpointPeriods > 0 && p%int64(opt.CheckpointPeriods) == 0) {
-				keep(save())
+				keep(save(ckPath))
 				lastSave = time.Now()
 			}
 		}
@@ -350,7 +371,7 @@ loop:
 			// a file could not be written: stop, keeping a checkpoint if
 			// one can still be written
 			sum.Failure = "output: " + runErr.Error()
-			keep(save())
+			keep(save(ckPath))
 			break
 		}
 	}
@@ -381,6 +402,9 @@ loop:
 		}
 	}
 	sum.Completed = sum.Failure == "" && !sum.Interrupted
+	if sum.Completed && opt.SaveFinal {
+		keep(save(filepath.Join(opt.Out, FinalStateFile)))
+	}
 	keep(series.Close())
 	if periods != nil {
 		keep(periods.Close())
@@ -403,7 +427,7 @@ func rampPeriods(c *cases.Case) int {
 func summarizeSwimmer(sum *Summary, sim *Simulation, tr *periodTracker) {
 	c := sim.Case
 	T := float64(tr.steps) * sim.Lattice.Dt
-	sp := SwimmingSpeed(tr.Centroids, T, rampPeriods(c))
+	sp := SwimmingSpeed(tr.Centroids, T, sim.skipPeriods())
 	net := tr.Centroids[len(tr.Centroids)-1] - tr.Centroids[0]
 	sum.NetDisplacement = &net
 	if sp.Periods == 0 {

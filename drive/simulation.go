@@ -23,6 +23,7 @@ type Simulation struct {
 	fields *lbm.Fields
 	mass0  float64
 	sw     *swimmer // nil without spheres
+	warm   bool     // started from another run's final state (no ramp)
 }
 
 // New sets up the case c on the lattice l with the given number of
@@ -42,13 +43,7 @@ func New(c *cases.Case, l *cases.Lattice, threads int) (*Simulation, error) {
 		return nil, fmt.Errorf("set up the lattice: %w", err)
 	}
 	s := &Simulation{Case: c, Lattice: l, Fluid: fl, FrameOnLiquid: periodic}
-	if f := c.Shaking.Frequency; f > 0 {
-		s.Shaker = Shaker{Amplitude: c.Shaking.Amplitude, Omega: 2 * math.Pi * f, Ramp: c.Shaking.RampPeriods / f}
-		for _, h := range c.Shaking.Harmonics {
-			s.Shaker.Harmonics = append(s.Shaker.Harmonics,
-				Harmonic{Order: h.Order, Amplitude: h.Amplitude, Phase: h.Phase * math.Pi / 180})
-		}
-	}
+	s.Shaker = shakerOf(c)
 	if err := s.setupBodies(); err != nil {
 		fl.Close()
 		return nil, err
@@ -56,6 +51,18 @@ func New(c *cases.Case, l *cases.Lattice, threads int) (*Simulation, error) {
 	s.fields = fl.Fields(nil)
 	s.mass0 = fl.Mass3D(s.fields)
 	return s, nil
+}
+
+// shakerOf is the drive of case c.
+func shakerOf(c *cases.Case) Shaker {
+	var s Shaker
+	if f := c.Shaking.Frequency; f > 0 {
+		s = Shaker{Amplitude: c.Shaking.Amplitude, Omega: 2 * math.Pi * f, Ramp: c.Shaking.RampPeriods / f}
+		for _, h := range c.Shaking.Harmonics {
+			s.Harmonics = append(s.Harmonics, Harmonic{Order: h.Order, Amplitude: h.Amplitude, Phase: h.Phase * math.Pi / 180})
+		}
+	}
+	return s
 }
 
 // Setup resolves c to lattice units and sets it up.
