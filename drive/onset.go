@@ -81,17 +81,18 @@ func (o OnsetOptions) check() error {
 
 // OnsetPoint is one value of the parameter and what its run found.
 type OnsetPoint struct {
-	Value       float64 `json:"value"`
-	Speed       float64 `json:"mean_speed_m_s"`            // signed along +z
-	Uncertainty float64 `json:"speed_uncertainty_m_s"`     // standard error
-	Converged   bool    `json:"converged"`                 // the run's own convergence test
-	Swimming    bool    `json:"swimming"`                  // |Speed| > Sigmas Uncertainty and > Floor
-	Round       int     `json:"round"`                     // 0: the scan, then each narrowing round
-	Run         int     `json:"run"`                       // 1-based order in which it was asked for
-	Dir         string  `json:"dir,omitempty"`             // its run directory
-	WarmStart   string  `json:"warm_start_from,omitempty"` // the run it started from, if any
-	Err         string  `json:"error,omitempty"`           // why it has no speed
-	Note        string  `json:"note,omitempty"`            // e.g. not converged
+	Value       float64  `json:"value"`
+	Speed       float64  `json:"mean_speed_m_s"`            // signed along +z
+	Uncertainty float64  `json:"speed_uncertainty_m_s"`     // standard error
+	Converged   bool     `json:"converged"`                 // the run's own convergence test
+	Swimming    bool     `json:"swimming"`                  // |Speed| > Sigmas Uncertainty and > Floor
+	Round       int      `json:"round"`                     // 0: the scan, then each narrowing round
+	Run         int      `json:"run"`                       // 1-based order in which it was asked for
+	Dir         string   `json:"dir,omitempty"`             // its run directory
+	WarmStart   string   `json:"warm_start_from,omitempty"` // the run it started from, if any
+	Err         string   `json:"error,omitempty"`           // why it has no speed
+	Note        string   `json:"note,omitempty"`            // e.g. not converged
+	Warnings    []string `json:"warnings,omitempty"`        // the run's own warnings
 }
 
 // OnsetEval runs the points at values (at once where it can) and returns

@@ -302,6 +302,19 @@ func onsetCaveats(r *Onset) []string {
 		out = append(out, fmt.Sprintf("%d of %d runs did not pass their own convergence test (more periods would settle them): %s",
 			len(unconv), len(r.Points), strings.Join(unconv, ", ")))
 	}
+	seen := map[string]int{}
+	var order []string
+	for _, p := range r.Points {
+		for _, w := range p.Warnings {
+			if seen[w] == 0 {
+				order = append(order, w)
+			}
+			seen[w]++
+		}
+	}
+	for _, w := range order {
+		out = append(out, fmt.Sprintf("%d of %d runs warned: %s", seen[w], len(r.Points), w))
+	}
 	if r.Crossings > 1 {
 		out = append(out, fmt.Sprintf("the class changes %d times along the parameter: the bracket is the lowest change, and the others are not narrowed", r.Crossings))
 	}

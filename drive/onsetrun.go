@@ -176,6 +176,11 @@ func onsetPoint(r SweepResult) OnsetPoint {
 	case sum.MeanVelocity == nil || sum.MeanVelocityUncertainty == nil:
 		p.Err = "the run has no swimming speed (too few periods?)"
 	default:
+		for _, w := range sum.Warnings {
+			if !strings.HasPrefix(w, "the swimming speed has not converged") { // counted on its own
+				p.Warnings = append(p.Warnings, w)
+			}
+		}
 		p.Speed, p.Uncertainty = *sum.MeanVelocity, *sum.MeanVelocityUncertainty
 		p.Converged = sum.Converged != nil && *sum.Converged
 		if !p.Converged {
