@@ -40,6 +40,7 @@ func cmdOnset(args []string, stdout, stderr io.Writer) error {
 	out := fs.String("out", "", "onset directory (default runs/onset-NAME, a new one)")
 	resume := fs.String("resume", "", "continue the search in this directory (finished runs are reused)")
 	quiet := fs.Bool("quiet", false, "no line per run on stderr")
+	warm := fs.Bool("warm", false, "start each narrowing run from the final state of the nearest earlier run (a shorter transient)")
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "usage: axiswim onset [-param KEY] [-between LO,HI] [-tol F] [-floor M/S] [-jobs N] [-out DIR] CASE.toml")
 		fmt.Fprintln(stderr, "       axiswim onset -resume DIR [-threads N]")
@@ -74,7 +75,7 @@ func cmdOnset(args []string, stdout, stderr io.Writer) error {
 			return err
 		}
 		search.Scan, search.Tol, search.Sigmas, search.Jobs, search.MaxRuns = *scan, *tol, *sigmas, *jobs, *maxRuns
-		search.ModelError = *modelErr
+		search.ModelError, search.Warm = *modelErr, *warm
 		if *modelErr == 0 {
 			search.ModelError = -1 // none (0 would mean the default)
 		}
@@ -195,6 +196,9 @@ func printOnset(w io.Writer, s drive.OnsetSearch, r *drive.Onset) {
 			speed, class = "-", p.Err
 		} else if p.Note != "" {
 			class += " (" + p.Note + ")"
+		}
+		if p.WarmStart != "" {
+			class += ", from " + p.WarmStart
 		}
 		fmt.Fprintf(w, "%4d  %-12.5g  %-24s  %s\n", p.Run, p.Value, speed, class)
 	}

@@ -21,6 +21,7 @@ func cmdSweep(args []string, stdout, stderr io.Writer) error {
 	threads := fs.Int("threads", 0, "goroutines shared by the jobs (0: all cores)")
 	resume := fs.String("resume", "", "continue the sweep in this directory (finished points are not run again)")
 	quiet := fs.Bool("quiet", false, "no line per point on stderr")
+	warm := fs.Bool("warm", false, "start each point from the final state of the nearest finished point (a shorter transient; with -jobs > 1 the choice depends on timing)")
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "usage: axiswim sweep [-out DIR] [-jobs N] [-threads N] [-quiet] SWEEP.toml")
 		fmt.Fprintln(stderr, "       axiswim sweep -resume DIR [-jobs N] [-threads N] [-quiet]")
@@ -72,7 +73,7 @@ func cmdSweep(args []string, stdout, stderr io.Writer) error {
 	}
 	n := len(s.Points())
 	fmt.Fprintf(stderr, "%s: %d points, %d at a time\n", dir, n, *jobs)
-	results, err := drive.RunSweep(ctx, s, drive.SweepOptions{Out: dir, Jobs: *jobs, Cores: *threads, Log: log})
+	results, err := drive.RunSweep(ctx, s, drive.SweepOptions{Out: dir, Jobs: *jobs, Cores: *threads, Log: log, Warm: *warm})
 	for _, r := range results {
 		line := fmt.Sprintf("  %3d  %-40s", r.Index+1, s.Label(r.Point))
 		switch sum := r.Summary; {

@@ -185,8 +185,8 @@ func TestOnsetOptions(t *testing.T) {
 	}
 }
 
-// TestRunOnsetResume: an onset search on real (cheap) runs writes its
-// table, report and picture; a search stopped after its first runs and
+// TestRunOnsetResume: an onset search on real (cheap) runs, with warm
+// starts, writes its table, report and picture; a search stopped after its first runs and
 // resumed reuses them (runs nothing twice) and ends with the same table,
 // byte for byte; a directory whose record asks for other values is
 // refused.
@@ -196,7 +196,7 @@ func TestRunOnsetResume(t *testing.T) {
 		t.Fatal(err)
 	}
 	base = bytes.Replace(base, []byte("periods = 6"), []byte("periods = 4"), 1) // 2 analysed after the ramp
-	search := OnsetSearch{Name: "small", Key: "shaking.amplitude", Lo: 5e-5, Hi: 4e-4, Log: true, Scan: 3, Tol: 0.4, Floor: 5e-6}
+	search := OnsetSearch{Name: "small", Key: "shaking.amplitude", Lo: 5e-5, Hi: 4e-4, Log: true, Scan: 3, Tol: 0.4, Floor: 5e-6, Warm: true}
 	ctx := context.Background()
 	full := t.TempDir()
 	r, err := RunOnset(ctx, search, base, OnsetRunOptions{Out: full, Cores: 2})
@@ -210,6 +210,11 @@ func TestRunOnsetResume(t *testing.T) {
 	for _, f := range []string{OnsetTableFile, OnsetReportFile, OnsetChartFile, OnsetSearchFile} {
 		if _, err := os.Stat(filepath.Join(full, f)); err != nil {
 			t.Error(err)
+		}
+	}
+	for _, p := range r.Points {
+		if (p.Round > 0) != strings.HasPrefix(p.WarmStart, "point_") {
+			t.Errorf("run %d of round %d: warm start %q (the scan starts from rest, the narrowing from earlier runs)", p.Run, p.Round, p.WarmStart)
 		}
 	}
 	// A search stopped after its scan: its directory holds the record,

@@ -302,6 +302,16 @@ func onsetCaveats(r *Onset) []string {
 		out = append(out, fmt.Sprintf("%d of %d runs did not pass their own convergence test (more periods would settle them): %s",
 			len(unconv), len(r.Points), strings.Join(unconv, ", ")))
 	}
+	warm := 0
+	for _, p := range r.Points {
+		if p.WarmStart != "" {
+			warm++
+		}
+	}
+	if warm > 0 && len(unconv) > 0 {
+		out = append(out, fmt.Sprintf("%d runs were warm-started and %d runs are not converged: a warm-started run carries on its source's flow, so it has run longer in all than a run from rest; "+
+			"until the runs converge, warm and cold points differ by more than their standard errors (and the fits show it). Run more periods, or search without -warm to compare", warm, len(unconv)))
+	}
 	seen := map[string]int{}
 	var order []string
 	for _, p := range r.Points {

@@ -38,6 +38,9 @@ type OnsetSearch struct {
 	Jobs       int     `toml:"jobs"`
 	MaxRuns    int     `toml:"max_runs"`
 	ModelError float64 `toml:"model_error"`
+	// Warm starts each run of a narrowing round from the final state of
+	// the nearest run of the earlier rounds (where their lattices agree).
+	Warm bool `toml:"warm_starts"`
 }
 
 // Options returns the search's options.
@@ -119,6 +122,11 @@ func RunOnset(ctx context.Context, search OnsetSearch, base []byte, o OnsetRunOp
 	var mu sync.Mutex
 	asked := append([]string(nil), recorded...)
 	next := 0 // runs asked for so far
+	type finished struct {
+		v   float64
+		dir string
+	}
+	var done []finished // runs of the earlier rounds, for warm starts
 	eval := func(ctx context.Context, values []float64, round int) ([]OnsetPoint, error) {
 		first := next
 		for i, v := range values {
@@ -146,13 +154,27 @@ func RunOnset(ctx context.Context, search OnsetSearch, base []byte, o OnsetRunOp
 				defer wg.Done()
 				slot <- struct{}{}
 				defer func() { <-slot }()
-				r := runPoint(ctx, s, first+i, cases.Point{v}, o.Out, threads, log, &mu)
+				from := ""
+				if search.Warm {
+					best := math.Inf(1)
+					for _, d := range done {
+						if dist := onsetDistance(v, d.v, search.Log); dist < best {
+							best, from = dist, d.dir
+						}
+					}
+				}
+				r := runPoint(ctx, s, first+i, cases.Point{v}, o.Out, threads, log, &mu, from, search.Warm)
 				pts[i] = onsetPoint(r)
 			}()
 		}
 		wg.Wait()
 		if ctx.Err() != nil {
 			return nil, fmt.Errorf("onset search interrupted: %w", ctx.Err())
+		}
+		for i, p := range pts {
+			if p.usable() {
+				done = append(done, finished{values[i], p.Dir})
+			}
 		}
 		return pts, nil
 	}
@@ -163,6 +185,14 @@ func RunOnset(ctx context.Context, search OnsetSearch, base []byte, o OnsetRunOp
 		}
 	}
 	return res, err
+}
+
+// onsetDistance is how far apart two values are for a warm start.
+func onsetDistance(a, b float64, geometric bool) float64 {
+	if geometric {
+		return math.Abs(math.Log(a / b))
+	}
+	return math.Abs(a - b)
 }
 
 // onsetPoint reads a run's result into an OnsetPoint.
@@ -182,6 +212,9 @@ func onsetPoint(r SweepResult) OnsetPoint {
 			}
 		}
 		p.Speed, p.Uncertainty = *sum.MeanVelocity, *sum.MeanVelocityUncertainty
+		if w := sum.WarmStart; w != nil && w.Used {
+			p.WarmStart = filepath.Base(w.From)
+		}
 		p.Converged = sum.Converged != nil && *sum.Converged
 		if !p.Converged {
 			p.Note = "not converged"
@@ -259,15 +292,15 @@ func readOnsetRuns(path string) ([]string, error) {
 // fitted laws) in dir.
 func WriteOnset(dir string, search OnsetSearch, r *Onset) error {
 	var b strings.Builder
-	fmt.Fprintf(&b, "run,%s,mean_speed_m_s,speed_uncertainty_m_s,converged,swimming,round,dir,note\n", search.Key)
+	fmt.Fprintf(&b, "run,%s,mean_speed_m_s,speed_uncertainty_m_s,converged,swimming,round,dir,warm_start,note\n", search.Key)
 	for _, p := range r.Points {
 		note := p.Note
 		if p.Err != "" {
 			note = p.Err
 		}
-		fmt.Fprintf(&b, "%d,%s,%s,%s,%t,%t,%d,%s,%s\n", p.Run, strconv.FormatFloat(p.Value, 'g', 10, 64),
+		fmt.Fprintf(&b, "%d,%s,%s,%s,%t,%t,%d,%s,%s,%s\n", p.Run, strconv.FormatFloat(p.Value, 'g', 10, 64),
 			numOrEmpty(p.Speed), numOrEmpty(p.Uncertainty), p.Converged, p.Swimming, p.Round,
-			csvQuote(filepath.Base(p.Dir)), csvQuote(note))
+			csvQuote(filepath.Base(p.Dir)), csvQuote(p.WarmStart), csvQuote(note))
 	}
 	if err := output.WriteFileAtomic(filepath.Join(dir, OnsetTableFile), []byte(b.String())); err != nil {
 		return err

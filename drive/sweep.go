@@ -11,6 +11,7 @@ import (
 	"os"
 	"path/filepath"
 	"runtime"
+	"slices"
 	"strconv"
 	"strings"
 	"sync"
@@ -25,6 +26,13 @@ type SweepOptions struct {
 	Jobs  int       // points run at once (0: 1)
 	Cores int       // goroutines shared among the jobs (0: all cores)
 	Log   io.Writer // one line per point started and finished
+	// Warm starts each point from the final state of the nearest point
+	// finished by then (by the varied values, scaled to their ranges),
+	// where their lattices agree; every point keeps its final state
+	// (final.bin) for this. With Jobs > 1 which points have finished
+	// depends on timing, so the results do too: each summary records its
+	// source.
+	Warm bool
 }
 
 // SweepResult is one point of a sweep: its values, where it ran, and what
@@ -71,6 +79,8 @@ func RunSweep(ctx context.Context, s *cases.Sweep, o SweepOptions) ([]SweepResul
 	pts := s.Points()
 	results := make([]SweepResult, len(pts))
 	var mu sync.Mutex // serialises log lines
+	var doneMu sync.Mutex
+	var done []int // points finished, for warm starts
 	next := make(chan int)
 	var wg sync.WaitGroup
 	for range jobs {
@@ -78,8 +88,21 @@ func RunSweep(ctx context.Context, s *cases.Sweep, o SweepOptions) ([]SweepResul
 		go func() {
 			defer wg.Done()
 			for i := range next {
-				r := runPoint(ctx, s, i, pts[i], o.Out, threads, log, &mu)
+				from := ""
+				if o.Warm {
+					doneMu.Lock()
+					if k := nearestPoint(s, pts, i, done); k >= 0 {
+						from = PointDir(o.Out, k)
+					}
+					doneMu.Unlock()
+				}
+				r := runPoint(ctx, s, i, pts[i], o.Out, threads, log, &mu, from, o.Warm)
 				results[i] = r
+				if r.Err == "" && r.Summary != nil && r.Summary.Completed {
+					doneMu.Lock()
+					done = append(done, i)
+					doneMu.Unlock()
+				}
 			}
 		}()
 	}
@@ -109,7 +132,10 @@ func RunSweep(ctx context.Context, s *cases.Sweep, o SweepOptions) ([]SweepResul
 }
 
 // runPoint runs (or resumes, or skips) point i.
-func runPoint(ctx context.Context, s *cases.Sweep, i int, pt cases.Point, out string, threads int, log io.Writer, mu *sync.Mutex) SweepResult {
+//
+// With warmFrom set the point starts from that run's final state (see
+// Options.WarmFrom); with keep it keeps its own final state.
+func runPoint(ctx context.Context, s *cases.Sweep, i int, pt cases.Point, out string, threads int, log io.Writer, mu *sync.Mutex, warmFrom string, keep bool) SweepResult {
 	r := SweepResult{Index: i, Point: pt, Dir: PointDir(out, i)}
 	say := func(format string, args ...any) {
 		mu.Lock()
@@ -136,8 +162,15 @@ func runPoint(ctx context.Context, s *cases.Sweep, i int, pt cases.Point, out st
 	if _, err := os.Stat(filepath.Join(r.Dir, CheckpointFile)); err == nil {
 		r.Resumed = true
 	}
-	say("%s on %d goroutine(s)", map[bool]string{true: "resuming", false: "running"}[r.Resumed], threads)
-	sum, err := Run(ctx, c, l, Options{Out: r.Dir, Threads: threads, Quiet: true, Log: io.Discard, Resume: r.Resumed})
+	how := map[bool]string{true: "resuming", false: "running"}[r.Resumed]
+	if warmFrom != "" && !r.Resumed {
+		how += " from the state of " + filepath.Base(warmFrom)
+	} else {
+		warmFrom = "" // a resumed run keeps the start it had
+	}
+	say("%s on %d goroutine(s)", how, threads)
+	sum, err := Run(ctx, c, l, Options{Out: r.Dir, Threads: threads, Quiet: true, Log: io.Discard, Resume: r.Resumed,
+		WarmFrom: warmFrom, SaveFinal: keep})
 	r.Summary = sum
 	switch {
 	case err != nil:
@@ -150,6 +183,30 @@ func runPoint(ctx context.Context, s *cases.Sweep, i int, pt cases.Point, out st
 		say("done in %.1f s", sum.WallTime)
 	}
 	return r
+}
+
+// nearestPoint returns the point among done nearest to point i, the
+// distance in each varied key scaled to the key's range (logarithmically
+// for log ranges); -1 when done is empty. Ties go to the lower index.
+func nearestPoint(s *cases.Sweep, pts []cases.Point, i int, done []int) int {
+	best, bestD := -1, math.Inf(1)
+	for _, k := range done {
+		var d float64
+		for n, p := range s.Params {
+			a, b := pts[i][n], pts[k][n]
+			lo, hi := slices.Min(p.Values), slices.Max(p.Values)
+			if p.Log && lo > 0 {
+				a, b, lo, hi = math.Log(a), math.Log(b), math.Log(lo), math.Log(hi)
+			}
+			if hi > lo {
+				d += ((a - b) / (hi - lo)) * ((a - b) / (hi - lo))
+			}
+		}
+		if d < bestD || d == bestD && k < best {
+			best, bestD = k, d
+		}
+	}
+	return best
 }
 
 // ReadSummary reads summary.json of a run directory.
@@ -168,7 +225,8 @@ func ReadSummary(dir string) (*Summary, error) {
 // WriteSweepResults writes results.csv: one row per point with the varied
 // values, the dimensionless groups of sphere 1, the mean speed and its
 // uncertainty, whether it converged, the leading sphere, spring 1's
-// extension amplitude and phase, the wall time and the status.
+// extension amplitude and phase, the wall time, the point it was warm
+// started from (empty: from rest) and the status.
 func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error {
 	var b bytes.Buffer
 	head := []string{"point"}
@@ -176,7 +234,7 @@ func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error
 		head = append(head, p.Key)
 	}
 	head = append(head, "epsilon", "M2", "Re", "Re_s", "mean_speed_m_s", "speed_uncertainty_m_s", "converged",
-		"leading_sphere", "extension_amplitude_m", "extension_phase_deg", "wall_time_s", "status")
+		"leading_sphere", "extension_amplitude_m", "extension_phase_deg", "wall_time_s", "warm_start", "status")
 	b.WriteString(strings.Join(head, ",") + "\n")
 	num := func(v float64) string {
 		if math.IsNaN(v) {
@@ -192,7 +250,7 @@ func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error
 		nan := math.NaN()
 		eps, m2, re, res := nan, nan, nan, nan
 		speed, unc, amp, ph, wall := nan, nan, nan, nan, nan
-		conv, lead := "", ""
+		conv, lead, warm := "", "", ""
 		if sum := r.Summary; sum != nil {
 			if len(sum.Groups) > 0 {
 				g := sum.Groups[0]
@@ -219,6 +277,9 @@ func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error
 				}
 			}
 			wall = sum.WallTime
+			if w := sum.WarmStart; w != nil && w.Used {
+				warm = filepath.Base(w.From)
+			}
 		}
 		status := "done"
 		switch {
@@ -228,7 +289,7 @@ func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error
 			status = "not finished"
 		}
 		row = append(row, num(eps), num(m2), num(re), num(res), num(speed), num(unc), conv, lead,
-			num(amp), num(ph), num(wall), csvQuote(status))
+			num(amp), num(ph), num(wall), csvQuote(warm), csvQuote(status))
 		b.WriteString(strings.Join(row, ",") + "\n")
 	}
 	if err := output.WriteFileAtomic(path, b.Bytes()); err != nil {
