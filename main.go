@@ -9,6 +9,11 @@
 //	axiswim verify [-full]
 //	axiswim cases [NAME]
 //	axiswim model [-json] CASE.toml
+//	axiswim sweep [-out DIR] [-jobs N] [-threads N] [-quiet] SWEEP.toml
+//	axiswim sweep -resume DIR
+//	axiswim sweep -plan [-out DIR] [-threads N] SWEEP.toml
+//	axiswim sweep -point N [-threads N] DIR
+//	axiswim collect DIR
 //	axiswim help
 package main
 
@@ -44,7 +49,8 @@ func commands() []command {
 		{"verify", "[-full] [-threads N] [-quiet]", "run the verification cases against analytic and published values", cmdVerify},
 		{"cases", "[NAME]", "list the embedded example cases, or print one", cmdCases},
 		{"model", "[-json] CASE.toml", "solve the reduced linear model: sphere and spring amplitudes and phases", cmdModel},
-		{"sweep", "[-out DIR] [-jobs N] SWEEP.toml | -resume DIR", "run every point of a sweep (one or two case keys varied) and write results.csv", cmdSweep},
+		{"sweep", "[-out DIR] [-jobs N] SWEEP.toml | -resume DIR", "run every point of a sweep (one or two case keys varied) and write results.csv; -plan: a Slurm array job instead", cmdSweep},
+		{"collect", "DIR", "gather a planned sweep's points into results.csv and list those not done", cmdCollect},
 		{"help", "", "show this help", nil},
 	}
 }
