@@ -9,9 +9,12 @@
 //	axiswim verify [-full]
 //	axiswim cases [NAME]
 //	axiswim model [-json] CASE.toml
-//	axiswim sweep [-out DIR] [-jobs N] SWEEP.toml
+//	axiswim sweep [-out DIR] [-jobs N] [-threads N] [-warm] [-quiet] SWEEP.toml
 //	axiswim sweep -resume DIR
-//	axiswim onset [-param KEY] [-between LO,HI] [-tol F] [-floor M/S] [-jobs N] CASE.toml
+//	axiswim sweep -plan [-out DIR] [-threads N] SWEEP.toml
+//	axiswim sweep -point N [-threads N] DIR
+//	axiswim collect DIR
+//	axiswim onset [-param KEY] [-between LO,HI] [-tol F] [-floor M/S] [-jobs N] [-warm] CASE.toml
 //	axiswim onset -resume DIR
 //	axiswim help
 package main
@@ -48,7 +51,8 @@ func commands() []command {
 		{"verify", "[-full] [-threads N] [-quiet]", "run the verification cases against analytic and published values", cmdVerify},
 		{"cases", "[NAME]", "list the embedded example cases, or print one", cmdCases},
 		{"model", "[-json] CASE.toml", "solve the reduced linear model: sphere and spring amplitudes and phases", cmdModel},
-		{"sweep", "[-out DIR] [-jobs N] SWEEP.toml | -resume DIR", "run every point of a sweep (one or two case keys varied) and write results.csv", cmdSweep},
+		{"sweep", "[-out DIR] [-jobs N] SWEEP.toml | -resume DIR", "run every point of a sweep (one or two case keys varied) and write results.csv; -plan: a Slurm array job instead", cmdSweep},
+		{"collect", "DIR", "gather a planned sweep's points into results.csv and list those not done", cmdCollect},
 		{"onset", "[-param KEY] [-between LO,HI] CASE.toml", "find the onset of swimming in one key by bisection; fit a power law and a threshold law", cmdOnset},
 		{"help", "", "show this help", nil},
 	}

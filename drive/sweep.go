@@ -131,10 +131,40 @@ func RunSweep(ctx context.Context, s *cases.Sweep, o SweepOptions) ([]SweepResul
 	return results, nil
 }
 
-// runPoint runs (or resumes, or skips) point i.
-//
-// With warmFrom set the point starts from that run's final state (see
-// Options.WarmFrom); with keep it keeps its own final state.
+// RunSweepPoint runs point i (from 0) of s alone, exactly as RunSweep
+// runs it (same directory, same skip and resume rules, same results bit
+// for bit) with o.Cores goroutines (0: all cores; o.Jobs is not used).
+// It writes no results.csv: many points may run at once in separate
+// processes (CollectSweep and WriteSweepResults gather them afterwards).
+// The error is for an i out of range; a point that fails has Err set.
+func RunSweepPoint(ctx context.Context, s *cases.Sweep, i int, o SweepOptions) (SweepResult, error) {
+	pts := s.Points()
+	if i < 0 || i >= len(pts) {
+		return SweepResult{}, fmt.Errorf("point %d of a sweep of points 1 to %d", i+1, len(pts))
+	}
+	threads := o.Cores
+	if threads <= 0 {
+		threads = runtime.NumCPU()
+	}
+	if err := os.MkdirAll(o.Out, 0o755); err != nil {
+		return SweepResult{}, fmt.Errorf("sweep directory: %w", err)
+	}
+	log := o.Log
+	if log == nil {
+		log = io.Discard
+	}
+	var mu sync.Mutex
+	return runPoint(ctx, s, i, pts[i], o.Out, threads, log, &mu, "", false), nil
+}
+
+// runPoint runs point i, or resumes it from its checkpoint, or skips it
+// when an earlier invocation finished it (completed, or failed without a
+// checkpoint: a failed point's directory is kept as its record, not run
+// over). A point with files but neither summary nor checkpoint was
+// stopped before its first checkpoint: it runs again from the start, over
+// those files, saying so. With warmFrom set the point starts from that
+// run's final state (see Options.WarmFrom); with keep it keeps its own
+// final state.
 func runPoint(ctx context.Context, s *cases.Sweep, i int, pt cases.Point, out string, threads int, log io.Writer, mu *sync.Mutex, warmFrom string, keep bool) SweepResult {
 	r := SweepResult{Index: i, Point: pt, Dir: PointDir(out, i)}
 	say := func(format string, args ...any) {
@@ -142,9 +172,21 @@ func runPoint(ctx context.Context, s *cases.Sweep, i int, pt cases.Point, out st
 		defer mu.Unlock()
 		fmt.Fprintf(log, "point %d (%s): %s\n", i+1, s.Label(pt), fmt.Sprintf(format, args...))
 	}
-	if sum, err := ReadSummary(r.Dir); err == nil && sum.Completed {
+	state, sum, why := InspectPoint(r.Dir)
+	_, ckErr := os.Stat(filepath.Join(r.Dir, CheckpointFile))
+	switch {
+	case state == PointDone:
 		r.Summary, r.Skipped = sum, true
 		say("finished earlier, not run again")
+		return r
+	case state == PointFailed && ckErr == nil && sum != nil:
+		// A run that failed writing its files kept a checkpoint to go on
+		// from; a guard's failure resumed from an earlier checkpoint fails
+		// again at the same step.
+		state = PointUnfinished
+	case state == PointFailed:
+		r.Summary, r.Skipped, r.Err = sum, true, why
+		say("failed earlier, not run again (%s); to run it again, remove %s", why, r.Dir)
 		return r
 	}
 	_, c, err := s.CaseAt(pt)
@@ -159,18 +201,19 @@ func runPoint(ctx context.Context, s *cases.Sweep, i int, pt cases.Point, out st
 		say("%v", err)
 		return r
 	}
-	if _, err := os.Stat(filepath.Join(r.Dir, CheckpointFile)); err == nil {
-		r.Resumed = true
-	}
+	r.Resumed = state == PointUnfinished
 	how := map[bool]string{true: "resuming", false: "running"}[r.Resumed]
+	if state == PointPartial {
+		how = "stopped before its first checkpoint earlier; running again from the start, replacing its files,"
+	}
 	if warmFrom != "" && !r.Resumed {
 		how += " from the state of " + filepath.Base(warmFrom)
 	} else {
 		warmFrom = "" // a resumed run keeps the start it had
 	}
 	say("%s on %d goroutine(s)", how, threads)
-	sum, err := Run(ctx, c, l, Options{Out: r.Dir, Threads: threads, Quiet: true, Log: io.Discard, Resume: r.Resumed,
-		WarmFrom: warmFrom, SaveFinal: keep})
+	sum, err = Run(ctx, c, l, Options{Out: r.Dir, Threads: threads, Quiet: true, Log: io.Discard,
+		Resume: r.Resumed, Force: state == PointPartial, WarmFrom: warmFrom, SaveFinal: keep})
 	r.Summary = sum
 	switch {
 	case err != nil:
