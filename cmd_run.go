@@ -27,11 +27,16 @@ func newFlags(name string, stderr io.Writer) *flag.FlagSet {
 	return fs
 }
 
-// parseFlags parses args, turning a flag error into a usage error.
+// errHelp marks a command asked for its help (-h), which the flag set
+// has printed: the command ends there, successfully.
+var errHelp = errors.New("help shown")
+
+// parseFlags parses args, turning a flag error into a usage error and -h
+// into errHelp.
 func parseFlags(fs *flag.FlagSet, args []string) error {
 	if err := fs.Parse(args); err != nil {
 		if errors.Is(err, flag.ErrHelp) {
-			return nil
+			return errHelp
 		}
 		return fmt.Errorf("%w: %v", errUsage, err)
 	}

@@ -27,8 +27,8 @@ func cmdSweep(args []string, stdout, stderr io.Writer) error {
 	quiet := fs.Bool("quiet", false, "no line per point on stderr")
 	warm := fs.Bool("warm", false, "start each point from the final state of the nearest finished point (a shorter transient; with -jobs > 1 the choice depends on timing)")
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: axiswim sweep [-out DIR] [-jobs N] [-threads N] [-quiet] SWEEP.toml")
-		fmt.Fprintln(stderr, "       axiswim sweep -resume DIR [-jobs N] [-threads N] [-quiet]")
+		fmt.Fprintln(stderr, "usage: axiswim sweep [-out DIR] [-jobs N] [-threads N] [-warm] [-quiet] SWEEP.toml")
+		fmt.Fprintln(stderr, "       axiswim sweep -resume DIR [-jobs N] [-threads N] [-warm] [-quiet]")
 		fmt.Fprintln(stderr, "       axiswim sweep -plan [-out DIR] [-threads N] SWEEP.toml")
 		fmt.Fprintln(stderr, "       axiswim sweep -point N [-threads N] [-quiet] DIR")
 		fmt.Fprintln(stderr, "Runs every point of a sweep file (a base case and one or two keys varied) and writes results.csv.")
@@ -49,8 +49,8 @@ func cmdSweep(args []string, stdout, stderr io.Writer) error {
 		on    bool
 		never []string
 	}{
-		{"-plan", *plan, []string{"resume", "point", "jobs", "quiet"}},
-		{"-point", set["point"], []string{"resume", "out", "jobs"}},
+		{"-plan", *plan, []string{"resume", "point", "jobs", "quiet", "warm"}}, // array tasks run at once: no point to start from
+		{"-point", set["point"], []string{"resume", "out", "jobs", "warm"}},
 		{"-resume", *resume != "", []string{"out"}},
 	} {
 		for _, f := range c.never {

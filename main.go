@@ -85,7 +85,7 @@ func dispatch(args []string, stdout, stderr io.Writer) int {
 		}
 		err := c.run(args[1:], stdout, stderr)
 		switch {
-		case err == nil:
+		case err == nil, errors.Is(err, errHelp):
 			return exitOK
 		case errors.Is(err, errUsage):
 			fmt.Fprintf(stderr, "axiswim %s: %v\n", c.name, err)

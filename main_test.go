@@ -242,3 +242,18 @@ func TestOnsetUsage(t *testing.T) {
 		}
 	}
 }
+
+// TestHelpFlag: COMMAND -h prints the command's usage once and does
+// nothing else (run -h once went on to run the demo), exit status 0.
+func TestHelpFlag(t *testing.T) {
+	for _, c := range commands() {
+		if c.run == nil {
+			continue
+		}
+		var out, errb bytes.Buffer
+		code := dispatch([]string{c.name, "-h"}, &out, &errb)
+		if n := strings.Count(errb.String(), "usage: axiswim "+c.name); code != exitOK || n != 1 || out.Len() > 0 {
+			t.Errorf("%s -h: exit %d, usage printed %d times, stdout %q", c.name, code, n, out.String())
+		}
+	}
+}
