@@ -191,11 +191,11 @@ func TestOnsetOptions(t *testing.T) {
 // byte for byte; a directory whose record asks for other values is
 // refused.
 func TestRunOnsetResume(t *testing.T) {
-	base, err := os.ReadFile("../testdata/small-swimmer.toml")
+	base, err := os.ReadFile("../testdata/sweep-swimmer.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
-	base = bytes.Replace(base, []byte("periods = 6"), []byte("periods = 4"), 1) // 2 analysed after the ramp
+	base = bytes.Replace(base, []byte("periods = 3"), []byte("periods = 4"), 1) // 2 analysed after the ramp
 	search := OnsetSearch{Name: "small", Key: "shaking.amplitude", Lo: 5e-5, Hi: 4e-4, Log: true, Scan: 3, Tol: 0.4, Floor: 5e-6, Warm: true}
 	ctx := context.Background()
 	full := t.TempDir()

@@ -12,15 +12,16 @@ import (
 	"axiswim/cases"
 )
 
-// sweepCase is the small swimmer cut to 2 periods, for sweep tests.
+// sweepCase is the small swimmer cut to 2 periods, without fields or
+// pictures, for sweep tests.
 func sweepCase(t *testing.T) string {
-	src, err := os.ReadFile("../testdata/small-swimmer.toml")
+	src, err := os.ReadFile("../testdata/sweep-swimmer.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
 	dir := t.TempDir()
 	path := filepath.Join(dir, "base.toml")
-	if err := os.WriteFile(path, bytes.Replace(src, []byte("periods = 6"), []byte("periods = 2"), 1), 0o644); err != nil {
+	if err := os.WriteFile(path, bytes.Replace(src, []byte("periods = 3"), []byte("periods = 2"), 1), 0o644); err != nil {
 		t.Fatal(err)
 	}
 	return path

@@ -14,15 +14,15 @@ import (
 	"axiswim/cases"
 )
 
-// smallAt is the small swimmer of testdata at shaking amplitude a (m),
-// run for the given number of periods.
+// smallAt is the small swimmer of testdata (without fields or pictures)
+// at shaking amplitude a (m), run for the given number of periods.
 func smallAt(t *testing.T, a float64, periods int) (*cases.Case, *cases.Lattice) {
 	t.Helper()
-	src, err := os.ReadFile("../testdata/small-swimmer.toml")
+	src, err := os.ReadFile("../testdata/sweep-swimmer.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
-	src = bytes.Replace(src, []byte("periods = 6"), []byte("periods = "+strconv.Itoa(periods)), 1)
+	src = bytes.Replace(src, []byte("periods = 3"), []byte("periods = "+strconv.Itoa(periods)), 1)
 	src = bytes.Replace(src, []byte("amplitude = 0.00035"), []byte("amplitude = "+strconv.FormatFloat(a, 'g', -1, 64)), 1)
 	c, err := cases.Parse("small", src)
 	if err != nil {
