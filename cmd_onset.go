@@ -203,7 +203,7 @@ func printOnset(w io.Writer, s drive.OnsetSearch, r *drive.Onset) {
 		fmt.Fprintf(w, "%4d  %-12.5g  %-24s  %s\n", p.Run, p.Value, speed, class)
 	}
 	if r.Found {
-		fmt.Fprintf(w, "bracket: not swimming at %g, swimming at %g (relative width %.3g, tolerance %g)\n",
+		fmt.Fprintf(w, "bracket: not swimming at %.5g, swimming at %.5g (relative width %.3g, tolerance %g)\n",
 			r.Below, r.Above, r.Width, r.Options.Tol)
 	} else {
 		fmt.Fprintf(w, "no bracket: %s\n", r.Side)
