@@ -43,36 +43,35 @@ func WriteChartPNGWith(path, title, xlabel, ylabel string, lines []Line, o Chart
 	}
 	p.Legend.Left = o.LegendLeft
 	if o.LogX {
-		lo, hi := math.Inf(1), 0.0
-		for _, l := range lines {
-			for _, x := range l.X {
-				if !(x > 0) {
-					return fmt.Errorf("chart %s: x = %g on a logarithmic axis", path, x)
-				}
-				lo, hi = math.Min(lo, x), math.Max(hi, x)
-			}
-		}
-		p.X.Scale = plot.LogScale{}
-		if hi >= 10*lo { // ticks at the decades; within one, the default ones
-			p.X.Tick.Marker = plot.LogTicks{Prec: 1}
+		if err := logAxis(&p.X, "x", lines, func(l Line) []float64 { return l.X }); err != nil {
+			return fmt.Errorf("chart %s: %w", path, err)
 		}
 	}
 	if o.LogY {
-		lo, hi := math.Inf(1), 0.0
-		for _, l := range lines {
-			for _, y := range l.Y {
-				if !(y > 0) {
-					return fmt.Errorf("chart %s: y = %g on a logarithmic axis", path, y)
-				}
-				lo, hi = math.Min(lo, y), math.Max(hi, y)
-			}
-		}
-		p.Y.Scale = plot.LogScale{}
-		if hi >= 10*lo {
-			p.Y.Tick.Marker = plot.LogTicks{Prec: 1}
+		if err := logAxis(&p.Y, "y", lines, func(l Line) []float64 { return l.Y }); err != nil {
+			return fmt.Errorf("chart %s: %w", path, err)
 		}
 	}
 	return writeChart(path, p)
+}
+
+// logAxis makes ax logarithmic, with ticks at the decades when the values
+// (of every line) span one or more; every value must be positive.
+func logAxis(ax *plot.Axis, name string, lines []Line, values func(Line) []float64) error {
+	lo, hi := math.Inf(1), 0.0
+	for _, l := range lines {
+		for _, v := range values(l) {
+			if !(v > 0) {
+				return fmt.Errorf("%s = %g on a logarithmic axis", name, v)
+			}
+			lo, hi = math.Min(lo, v), math.Max(hi, v)
+		}
+	}
+	ax.Scale = plot.LogScale{}
+	if hi >= 10*lo { // within one decade, the default ticks
+		ax.Tick.Marker = plot.LogTicks{Prec: 1}
+	}
+	return nil
 }
 
 // errPoints are the points and error bars of a Line.
