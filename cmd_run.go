@@ -43,7 +43,8 @@ func parseFlags(fs *flag.FlagSet, args []string) error {
 	return nil
 }
 
-// loadCase reads a case file, or the embedded demo when path is empty, and
+// loadCase reads a case file (or an embedded example by name, when no
+// such file exists), or the embedded demo when path is empty, and
 // resolves it to lattice units. It returns the case's short name.
 func loadCase(path string) (*cases.Case, *cases.Lattice, string, error) {
 	var c *cases.Case
@@ -57,7 +58,12 @@ func loadCase(path string) (*cases.Case, *cases.Lattice, string, error) {
 		c, err = cases.Parse("demo (embedded)", src)
 	} else {
 		name = strings.TrimSuffix(filepath.Base(path), filepath.Ext(path))
-		c, err = cases.Load(path)
+		_, statErr := os.Stat(path)
+		if src, gerr := cases.Get(path); statErr != nil && gerr == nil && !strings.ContainsAny(path, `/\.`) {
+			c, err = cases.Parse(path+" (embedded)", src) // an example by name: axiswim run three-sphere-lag
+		} else {
+			c, err = cases.Load(path)
+		}
 	}
 	if err != nil {
 		return nil, nil, "", err
@@ -186,6 +192,20 @@ func printSummary(w io.Writer, dir string, sum *drive.Summary) {
 				fmt.Fprintf(w, "  %-52s simulated %.4g, linear model %.4g\n", c.Quantity, c.Simulated, c.Model)
 			}
 		}
+	}
+	for i, sw := range sum.Swimmers {
+		line := fmt.Sprintf("  swimmer %d (spheres %v):", i+1, sw.Spheres)
+		if sw.MeanVelocity != nil && sw.MeanVelocityUncertainty != nil {
+			line += fmt.Sprintf(" %.4g +- %.2g m/s", *sw.MeanVelocity, *sw.MeanVelocityUncertainty)
+		}
+		if sw.LeadingSphere > 0 {
+			line += fmt.Sprintf(", sphere %d leading", sw.LeadingSphere)
+		}
+		fmt.Fprintln(w, line)
+	}
+	for _, g := range sum.Gaps {
+		fmt.Fprintf(w, "  gap between swimmers %d and %d: %.4g -> %.4g m (least %.4g), %s at %.3g +- %.2g m/s\n",
+			g.Swimmers[0], g.Swimmers[1], g.Initial, g.Final, g.Min, g.Trend, g.Rate, g.Uncertainty)
 	}
 	fmt.Fprintf(w, "  liquid: max Mach %.3g, max mass drift %.2g\n", sum.MaxMach, sum.MaxMassDrift)
 	for _, x := range sum.Warnings {

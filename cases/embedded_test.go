@@ -6,7 +6,7 @@ import (
 )
 
 func TestList(t *testing.T) {
-	want := []string{"demo", "pipe-poiseuille", "shaken-cell", "stroke-pair"}
+	want := []string{"demo", "dumbbell-train", "pipe-poiseuille", "shaken-cell", "stroke-pair", "three-sphere-lag", "three-sphere-reciprocal"}
 	if got := List(); !reflect.DeepEqual(got, want) {
 		t.Errorf("List() = %q, want %q", got, want)
 	}

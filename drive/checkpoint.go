@@ -74,6 +74,12 @@ type trackerState struct {
 	Lo, Hi, Z0  []float64
 	Centroids   []float64
 	Rows        []rowState
+	// several swimmers (absent from checkpoints of earlier versions)
+	Swim, Gaps [][]float64
+	GapMin     []float64
+	MinGap     float64
+	MinPair    [2]int
+	HasMinGap  bool
 }
 
 type rowState struct {
@@ -81,6 +87,7 @@ type rowState struct {
 	Time, Centroid, Displ     float64
 	ExtAmp, ExtPhase, BodyAmp []float64
 	BodyPhase                 []float64
+	Swim, Gaps                []float64
 }
 
 type averageState struct {

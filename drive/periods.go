@@ -24,6 +24,15 @@ type periodTracker struct {
 	z0        []float64 // sphere centres at the start
 	Centroids []float64 // at the end of each period (index 0: start)
 	rows      []periodRow
+
+	// With several swimmers: each one's stroboscopic centroid and the gap
+	// between neighbours at each period's end (index 0: start), and the
+	// smallest gap seen at any step.
+	swim, gaps [][]float64
+	gapMin     []float64
+	// The smallest surface distance between any two spheres at any step.
+	minGap  float64
+	minPair [2]int
 }
 
 type periodRow struct {
@@ -32,6 +41,7 @@ type periodRow struct {
 	displacement      float64
 	extAmp, extPhase  []float64
 	bodyAmp, bodyPhas []float64
+	swim, gaps        []float64 // several swimmers: centroids, gaps
 }
 
 func newPeriodTracker(sim *Simulation) *periodTracker {
@@ -44,6 +54,17 @@ func newPeriodTracker(sim *Simulation) *periodTracker {
 		p.z0[k], _, _ = sim.SphereState(k)
 	}
 	p.Centroids = []float64{sim.Centroid()}
+	p.minGap = math.Inf(1)
+	if sw := sim.swimmers; len(sw) > 1 {
+		for g := range sw {
+			p.swim = append(p.swim, []float64{sim.swimmerCentroid(sw[g])})
+		}
+		for g := range len(sw) - 1 {
+			gap := sim.swimmerGap(sw[g], sw[g+1])
+			p.gaps = append(p.gaps, []float64{gap})
+			p.gapMin = append(p.gapMin, gap)
+		}
+	}
 	p.reset()
 	return p
 }
@@ -75,6 +96,14 @@ func (p *periodTracker) step() {
 		z, _, _ := s.SphereState(k)
 		p.body[k] += complex(z-p.z0[k], 0) * ph
 	}
+	if s.Spheres() > 1 {
+		if g, i, j := s.minSurfaceGap(); g < p.minGap {
+			p.minGap, p.minPair = g, [2]int{i, j}
+		}
+		for g := range p.gapMin {
+			p.gapMin[g] = math.Min(p.gapMin[g], s.swimmerGap(s.swimmers[g], s.swimmers[g+1]))
+		}
+	}
 	p.n++
 	p.ramp += complex(float64(p.n)/float64(p.steps), 0) * ph
 	if p.n < p.steps {
@@ -82,6 +111,14 @@ func (p *periodTracker) step() {
 	}
 	c := s.Centroid()
 	r := periodRow{period: len(p.Centroids), time: t, centroid: c, displacement: c - p.Centroids[len(p.Centroids)-1]}
+	for g := range p.swim {
+		p.swim[g] = append(p.swim[g], s.swimmerCentroid(s.swimmers[g]))
+		r.swim = append(r.swim, p.swim[g][len(p.swim[g])-1])
+	}
+	for g := range p.gaps {
+		p.gaps[g] = append(p.gaps[g], s.swimmerGap(s.swimmers[g], s.swimmers[g+1]))
+		r.gaps = append(r.gaps, p.gaps[g][len(p.gaps[g])-1])
+	}
 	for k := range p.ext {
 		r.extAmp = append(r.extAmp, 0.5*(p.hi[k]-p.lo[k]))
 		r.extPhase = append(r.extPhase, phaseAgainst(p.ext[k], p.drive))
@@ -127,7 +164,27 @@ func (p *periodTracker) columns() []output.Column {
 			output.Column{Name: fmt.Sprintf("sphere%d_amplitude_m", k+1), Doc: "fundamental amplitude of the motion relative to the container"},
 			output.Column{Name: fmt.Sprintf("sphere%d_phase_deg", k+1), Doc: "its phase against the drive displacement"})
 	}
+	for g := range p.swim {
+		cols = append(cols, output.Column{Name: fmt.Sprintf("swimmer%d_centroid_m", g+1),
+			Doc: fmt.Sprintf("stroboscopic centroid of swimmer %d (spheres %s)", g+1, sphereList(p.sim.swimmers[g]))})
+	}
+	for g := range p.gaps {
+		cols = append(cols, output.Column{Name: fmt.Sprintf("gap%d_%d_m", g+1, g+2),
+			Doc: fmt.Sprintf("surface gap between swimmers %d and %d", g+1, g+2)})
+	}
 	return cols
+}
+
+// sphereList writes 0-based sphere indices 1-based: "1, 2".
+func sphereList(g []int) string {
+	var b []byte
+	for i, k := range g {
+		if i > 0 {
+			b = append(b, ", "...)
+		}
+		b = fmt.Appendf(b, "%d", k+1)
+	}
+	return string(b)
 }
 
 func (r periodRow) values() []float64 {
@@ -138,5 +195,6 @@ func (r periodRow) values() []float64 {
 	for k := range r.bodyAmp {
 		v = append(v, r.bodyAmp[k], r.bodyPhas[k])
 	}
-	return v
+	v = append(v, r.swim...)
+	return append(v, r.gaps...)
 }

@@ -129,5 +129,19 @@ func writeCharts(dir string, sim *Simulation, h *history, tr *periodTracker) err
 			return err
 		}
 	}
+	if len(tr.gaps) > 0 {
+		var lines []output.Line
+		for g, gs := range tr.gaps {
+			l := output.Line{Label: fmt.Sprintf("swimmers %d and %d", g+1, g+2), Points: true}
+			for p, v := range gs {
+				l.X, l.Y = append(l.X, float64(p)*T), append(l.Y, v*1e3)
+			}
+			lines = append(lines, l)
+		}
+		if err := output.WriteChartPNG(filepath.Join(d, "gaps.png"), "surface gaps between neighbouring swimmers, once per period",
+			"time (s)", "gap (mm)", lines); err != nil {
+			return err
+		}
+	}
 	return nil
 }

@@ -74,9 +74,16 @@ type Summary struct {
 	MaxMach       float64        `json:"max_mach"`
 	FinalMaxSpeed float64        `json:"final_max_speed_m_s"`
 	WarmStart     *WarmStart     `json:"warm_start,omitempty"`
-	MaxMassDrift  float64        `json:"max_mass_drift"`
-	MassCorrected float64        `json:"mass_correction_applied,omitempty"`
-	Warnings      []string       `json:"warnings"`
+	// With several swimmers (spheres joined by springs or arms): each
+	// one's speed and the gaps between neighbours.
+	Swimmers []SwimmerSummary `json:"swimmers,omitempty"`
+	Gaps     []GapSummary     `json:"gaps,omitempty"`
+	// MinSurfaceGap is the smallest surface distance between two spheres
+	// at any step (negative: they overlapped).
+	MinSurfaceGap *float64 `json:"min_surface_gap_m,omitempty"`
+	MaxMassDrift  float64  `json:"max_mass_drift"`
+	MassCorrected float64  `json:"mass_correction_applied,omitempty"`
+	Warnings      []string `json:"warnings"`
 }
 
 // Comparison is one quantity from the simulation beside the reduced
@@ -388,6 +395,13 @@ loop:
 	sum.MassCorrected = applied
 	if tracker != nil {
 		summarizeSwimmer(sum, sim, tracker)
+		summarizeSwimmers(sum, sim, tracker)
+		if g := tracker.minGap; !math.IsInf(g, 0) {
+			sum.MinSurfaceGap = &g
+		}
+		if w := overlapWarning(tracker); w != "" {
+			sum.Warnings = append(sum.Warnings, w)
+		}
 		if c.Output.Pictures {
 			keep(writeCharts(opt.Out, sim, &hist, tracker))
 		}

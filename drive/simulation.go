@@ -23,7 +23,10 @@ type Simulation struct {
 	fields *lbm.Fields
 	mass0  float64
 	sw     *swimmer // nil without spheres
-	warm   bool     // started from another run's final state (no ramp)
+	warm   bool     // started from another run's final state
+	// swimmers are the groups of spheres joined by springs or arms
+	// (Swimmers), lowest first.
+	swimmers [][]int
 }
 
 // New sets up the case c on the lattice l with the given number of
@@ -48,6 +51,7 @@ func New(c *cases.Case, l *cases.Lattice, threads int) (*Simulation, error) {
 		fl.Close()
 		return nil, err
 	}
+	s.swimmers = Swimmers(c)
 	s.fields = fl.Fields(nil)
 	s.mass0 = fl.Mass3D(s.fields)
 	return s, nil

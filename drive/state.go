@@ -62,9 +62,20 @@ func (p *periodTracker) capture() *trackerState {
 		Centroids: append([]float64(nil), p.Centroids...)}
 	for _, r := range p.rows {
 		t.Rows = append(t.Rows, rowState{Period: r.period, Time: r.time, Centroid: r.centroid, Displ: r.displacement,
-			ExtAmp: r.extAmp, ExtPhase: r.extPhase, BodyAmp: r.bodyAmp, BodyPhase: r.bodyPhas})
+			ExtAmp: r.extAmp, ExtPhase: r.extPhase, BodyAmp: r.bodyAmp, BodyPhase: r.bodyPhas, Swim: r.swim, Gaps: r.gaps})
 	}
+	t.Swim, t.Gaps = cloneRows(p.swim), cloneRows(p.gaps)
+	t.GapMin = append([]float64(nil), p.gapMin...)
+	t.MinGap, t.MinPair, t.HasMinGap = p.minGap, p.minPair, true
 	return t
+}
+
+func cloneRows(x [][]float64) [][]float64 {
+	var out [][]float64
+	for _, r := range x {
+		out = append(out, append([]float64(nil), r...))
+	}
+	return out
 }
 
 func (p *periodTracker) restore(t *trackerState) {
@@ -78,7 +89,14 @@ func (p *periodTracker) restore(t *trackerState) {
 	p.rows = nil
 	for _, r := range t.Rows {
 		p.rows = append(p.rows, periodRow{period: r.Period, time: r.Time, centroid: r.Centroid, displacement: r.Displ,
-			extAmp: r.ExtAmp, extPhase: r.ExtPhase, bodyAmp: r.BodyAmp, bodyPhas: r.BodyPhase})
+			extAmp: r.ExtAmp, extPhase: r.ExtPhase, bodyAmp: r.BodyAmp, bodyPhas: r.BodyPhase, swim: r.Swim, gaps: r.Gaps})
+	}
+	if len(t.Swim) == len(p.swim) {
+		p.swim, p.gaps = cloneRows(t.Swim), cloneRows(t.Gaps)
+		copy(p.gapMin, t.GapMin)
+	}
+	if t.HasMinGap {
+		p.minGap, p.minPair = t.MinGap, t.MinPair
 	}
 }
 

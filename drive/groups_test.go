@@ -1,0 +1,98 @@
+package drive
+
+import (
+	"bytes"
+	"context"
+	"os"
+	"path/filepath"
+	"reflect"
+	"strings"
+	"testing"
+
+	"axiswim/cases"
+)
+
+// TestSwimmers: spheres joined by springs or arms, directly or through
+// others, are one swimmer; a lone sphere is its own; the swimmers are
+// ordered along z.
+func TestSwimmers(t *testing.T) {
+	c := &cases.Case{
+		Spheres: []cases.Sphere{{Z: 5}, {Z: -1}, {Z: 6}, {Z: 0}, {Z: 9}, {Z: -3}},
+		Springs: []cases.Spring{{Spheres: [2]int{1, 3}}},
+		Arms:    []cases.Arm{{Spheres: [2]int{2, 4}}, {Spheres: [2]int{4, 6}}},
+	}
+	want := [][]int{{1, 3, 5}, {0, 2}, {4}} // mean z -4/3, 11/2, 9
+	if got := Swimmers(c); !reflect.DeepEqual(got, want) {
+		t.Errorf("Swimmers = %v, want %v", got, want)
+	}
+}
+
+// trainCase is the dumbbell train of the examples, coarse and short, with
+// no fields or pictures.
+func trainCase(t *testing.T) (*cases.Case, *cases.Lattice) {
+	t.Helper()
+	src, err := cases.Get("dumbbell-train")
+	if err != nil {
+		t.Fatal(err)
+	}
+	src = bytes.Replace(src, []byte("cells_per_radius = 8"), []byte("cells_per_radius = 5"), 1)
+	src = bytes.Replace(src, []byte("periods = 12"), []byte("periods = 4"), 1)
+	src = append(src, "\n[output]\nvtk = false\npictures = false\n"...)
+	c, err := cases.Parse("train", src)
+	if err != nil {
+		t.Fatal(err)
+	}
+	l, err := cases.Resolve(c)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return c, l
+}
+
+// TestTrain: a train of two identical dumbbells runs, each swimmer gets
+// its speed and leading sphere, the gap series is written once per
+// period, the spheres never overlap, and a run interrupted and resumed
+// gives the same periods and swimmer summaries, bit for bit.
+func TestTrain(t *testing.T) {
+	c, l := trainCase(t)
+	whole, part := t.TempDir(), t.TempDir()
+	ctx := context.Background()
+	sum, err := Run(ctx, c, l, Options{Out: whole, Threads: 1, Quiet: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(sum.Swimmers) != 2 || len(sum.Gaps) != 1 {
+		t.Fatalf("%d swimmers and %d gaps, want 2 and 1", len(sum.Swimmers), len(sum.Gaps))
+	}
+	for i, sw := range sum.Swimmers {
+		if sw.MeanVelocity == nil || !reflect.DeepEqual(sw.Spheres, []int{2*i + 1, 2*i + 2}) {
+			t.Errorf("swimmer %d: %+v", i+1, sw)
+		}
+	}
+	if g := sum.Gaps[0]; !(g.Min > 0 && g.Initial > 2.5e-3 && g.Trend != "") {
+		t.Errorf("gap %+v", g)
+	}
+	if sum.MinSurfaceGap == nil || *sum.MinSurfaceGap <= 0 {
+		t.Errorf("spheres came within %v m of each other", sum.MinSurfaceGap)
+	}
+	data, err := os.ReadFile(filepath.Join(whole, "periods.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	lines := strings.Split(strings.TrimSpace(string(data)), "\n")
+	if !strings.HasSuffix(lines[0], "swimmer1_centroid_m,swimmer2_centroid_m,gap1_2_m") || len(lines) != 5 {
+		t.Errorf("periods.csv: %d lines, header %s", len(lines), lines[0])
+	}
+	if s, err := Run(ctx, c, l, Options{Out: part, Threads: 1, Quiet: true, StopAfter: int64(l.StepsPerPeriod*2 + 7)}); err != nil || !s.Interrupted {
+		t.Fatalf("interrupting: %v", err)
+	}
+	res, err := Run(ctx, c, l, Options{Out: part, Threads: 1, Quiet: true, Resume: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	again, _ := os.ReadFile(filepath.Join(part, "periods.csv"))
+	if !bytes.Equal(data, again) || !reflect.DeepEqual(res.Swimmers, sum.Swimmers) || !reflect.DeepEqual(res.Gaps, sum.Gaps) ||
+		*res.MinSurfaceGap != *sum.MinSurfaceGap {
+		t.Errorf("the resumed train differs: gaps %+v and %+v", res.Gaps, sum.Gaps)
+	}
+}
