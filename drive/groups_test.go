@@ -38,15 +38,7 @@ func trainCase(t *testing.T) (*cases.Case, *cases.Lattice) {
 	src = bytes.Replace(src, []byte("cells_per_radius = 8"), []byte("cells_per_radius = 5"), 1)
 	src = bytes.Replace(src, []byte("periods = 12"), []byte("periods = 4"), 1)
 	src = append(src, "\n[output]\nvtk = false\npictures = false\n"...)
-	c, err := cases.Parse("train", src)
-	if err != nil {
-		t.Fatal(err)
-	}
-	l, err := cases.Resolve(c)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return c, l
+	return mustCase(t, "train", src)
 }
 
 // TestTrain: a train of two identical dumbbells runs, each swimmer gets
@@ -95,4 +87,18 @@ func TestTrain(t *testing.T) {
 		*res.MinSurfaceGap != *sum.MinSurfaceGap {
 		t.Errorf("the resumed train differs: gaps %+v and %+v", res.Gaps, sum.Gaps)
 	}
+}
+
+// mustCase parses and resolves a case for a test.
+func mustCase(t *testing.T, name string, src []byte) (*cases.Case, *cases.Lattice) {
+	t.Helper()
+	c, err := cases.Parse(name, src)
+	if err != nil {
+		t.Fatal(err)
+	}
+	l, err := cases.Resolve(c)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return c, l
 }

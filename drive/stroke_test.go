@@ -30,14 +30,7 @@ func threeSphere(t *testing.T, name string, phase string) *Summary {
 		src = bytes.Replace(src, []byte("phase = -90.0"), []byte("phase = "+phase), 1)
 	}
 	src = append(src, "\n[output]\nvtk = false\npictures = false\n"...)
-	c, err := cases.Parse(name, src)
-	if err != nil {
-		t.Fatal(err)
-	}
-	l, err := cases.Resolve(c)
-	if err != nil {
-		t.Fatal(err)
-	}
+	c, l := mustCase(t, name, src)
 	sum, err := Run(context.Background(), c, l, Options{Out: t.TempDir(), Threads: 2, Quiet: true})
 	if err != nil {
 		t.Fatal(err)

@@ -24,15 +24,7 @@ func smallAt(t *testing.T, a float64, periods int) (*cases.Case, *cases.Lattice)
 	}
 	src = bytes.Replace(src, []byte("periods = 3"), []byte("periods = "+strconv.Itoa(periods)), 1)
 	src = bytes.Replace(src, []byte("amplitude = 0.00035"), []byte("amplitude = "+strconv.FormatFloat(a, 'g', -1, 64)), 1)
-	c, err := cases.Parse("small", src)
-	if err != nil {
-		t.Fatal(err)
-	}
-	l, err := cases.Resolve(c)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return c, l
+	return mustCase(t, "small", src)
 }
 
 func runSmall(t *testing.T, a float64, periods int, o Options) *Summary {
