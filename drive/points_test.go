@@ -15,13 +15,8 @@ import (
 // directory from what the directory holds, without running anything, and
 // a point whose case is invalid is failed with the case's error.
 func TestCollectSweepStates(t *testing.T) {
-	base := sweepCase(t)
 	// Point 6's density makes the case invalid.
-	src := "base = \"" + filepath.Base(base) + "\"\n[[vary]]\nkey = \"sphere[1].density\"\nvalues = [1500, 1600, 1700, 1800, 1900, -1]\n"
-	s, err := cases.ParseSweep("states", []byte(src), filepath.Dir(base))
-	if err != nil {
-		t.Fatal(err)
-	}
+	s := testSweep(t, "states", "sphere[1].density", "1500, 1600, 1700, 1800, 1900, -1")
 	out := t.TempDir()
 	write := func(i int, name, content string) {
 		dir := PointDir(out, i)

@@ -27,16 +27,24 @@ func sweepCase(t *testing.T) string {
 	return path
 }
 
+// testSweep is a sweep of sweepCase with one key varied over values (a
+// TOML list's contents).
+func testSweep(t *testing.T, name, key, values string) *cases.Sweep {
+	t.Helper()
+	base := sweepCase(t)
+	src := "base = \"" + filepath.Base(base) + "\"\n[[vary]]\nkey = \"" + key + "\"\nvalues = [" + values + "]\n"
+	s, err := cases.ParseSweep(name, []byte(src), filepath.Dir(base))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
 // TestSweepMatchesSingleRuns: the points of a sweep run with one job and
 // with two give the same series, bit for bit, as the same cases run one
 // by one, and a second invocation runs no finished point again.
 func TestSweepMatchesSingleRuns(t *testing.T) {
-	base := sweepCase(t)
-	src := "base = \"" + filepath.Base(base) + "\"\n[[vary]]\nkey = \"shaking.amplitude\"\nvalues = [1e-4, 2e-4, 3e-4]\n"
-	s, err := cases.ParseSweep("amp", []byte(src), filepath.Dir(base))
-	if err != nil {
-		t.Fatal(err)
-	}
+	s := testSweep(t, "amp", "shaking.amplitude", "1e-4, 2e-4, 3e-4")
 	ctx := context.Background()
 	out1, out2 := filepath.Join(t.TempDir(), "jobs1"), filepath.Join(t.TempDir(), "jobs2")
 	if _, err := RunSweep(ctx, s, SweepOptions{Out: out1, Jobs: 1, Cores: 2}); err != nil {

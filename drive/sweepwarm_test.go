@@ -6,8 +6,6 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
-
-	"axiswim/cases"
 )
 
 // TestSweepWarm: with warm starts and one job, each point after the first
@@ -15,12 +13,7 @@ import (
 // range), and results.csv says so; a point on another lattice
 // (cells_per_radius varied) starts from rest and its summary says why.
 func TestSweepWarm(t *testing.T) {
-	base := sweepCase(t)
-	src := "base = \"" + filepath.Base(base) + "\"\n[[vary]]\nkey = \"shaking.amplitude\"\nvalues = [1e-4, 3e-4, 1.2e-4]\n"
-	s, err := cases.ParseSweep("amp", []byte(src), filepath.Dir(base))
-	if err != nil {
-		t.Fatal(err)
-	}
+	s := testSweep(t, "amp", "shaking.amplitude", "1e-4, 3e-4, 1.2e-4")
 	out := t.TempDir()
 	res, err := RunSweep(context.Background(), s, SweepOptions{Out: out, Jobs: 1, Cores: 2, Warm: true})
 	if err != nil {
@@ -45,10 +38,7 @@ func TestSweepWarm(t *testing.T) {
 		t.Errorf("results.csv does not name the warm starts:\n%s", table)
 	}
 
-	src = "base = \"" + filepath.Base(base) + "\"\n[[vary]]\nkey = \"grid.cells_per_radius\"\nvalues = [5, 6]\n"
-	if s, err = cases.ParseSweep("res", []byte(src), filepath.Dir(base)); err != nil {
-		t.Fatal(err)
-	}
+	s = testSweep(t, "res", "grid.cells_per_radius", "5, 6")
 	res, err = RunSweep(context.Background(), s, SweepOptions{Out: t.TempDir(), Jobs: 1, Cores: 2, Warm: true})
 	if err != nil {
 		t.Fatal(err)
