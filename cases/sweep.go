@@ -110,10 +110,9 @@ func ParseSweep(name string, src []byte, dir string) (*Sweep, error) {
 		if err != nil {
 			return nil, fmt.Errorf("sweep %s: vary %d (key %q): %w", name, n+1, p.Key, err)
 		}
-		if _, err := s.apply(cloneTOML(s.base).(map[string]any), p.Key, values[0]); err != nil {
+		if err := s.add(Param{Key: p.Key, Values: values, Log: p.Scale == ScaleLog}); err != nil {
 			return nil, fmt.Errorf("sweep %s: vary %d: %w", name, n+1, err)
 		}
-		s.Params = append(s.Params, Param{Key: p.Key, Values: values, Log: p.Scale == ScaleLog})
 		total *= len(values)
 	}
 	if len(s.Params) == 2 && s.Params[0].Key == s.Params[1].Key {
@@ -140,12 +139,21 @@ func NewSweep(name, base string, caseSrc []byte, params ...Param) (*Sweep, error
 		if len(p.Values) == 0 {
 			return nil, fmt.Errorf("sweep %s: key %q has no values", name, p.Key)
 		}
-		if _, err := s.apply(cloneTOML(s.base).(map[string]any), p.Key, p.Values[0]); err != nil {
+		if err := s.add(Param{Key: p.Key, Values: slices.Clone(p.Values), Log: p.Log}); err != nil {
 			return nil, fmt.Errorf("sweep %s: %w", name, err)
 		}
-		s.Params = append(s.Params, Param{Key: p.Key, Values: slices.Clone(p.Values), Log: p.Log})
 	}
 	return s, nil
+}
+
+// add checks that p's key is one the base case takes (with its first
+// value) and adds p.
+func (s *Sweep) add(p Param) error {
+	if _, err := s.apply(cloneTOML(s.base).(map[string]any), p.Key, p.Values[0]); err != nil {
+		return err
+	}
+	s.Params = append(s.Params, p)
+	return nil
 }
 
 // newSweep checks the base case and keeps it as TOML data.
