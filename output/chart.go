@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -53,6 +54,22 @@ func WriteChartPNGWith(path, title, xlabel, ylabel string, lines []Line, o Chart
 		}
 	}
 	return writeChart(path, p)
+}
+
+// plainTicks are gonum's default ticks labelled with the shortest form of
+// their value to six digits: the default labels keep only the digits of
+// the tick spacing's magnitude, so ticks 0.05 apart near 2.5 read "2.5"
+// twice.
+type plainTicks struct{}
+
+func (plainTicks) Ticks(lo, hi float64) []plot.Tick {
+	ts := plot.DefaultTicks{}.Ticks(lo, hi)
+	for i := range ts {
+		if ts[i].Label != "" {
+			ts[i].Label = strconv.FormatFloat(ts[i].Value, 'g', 6, 64)
+		}
+	}
+	return ts
 }
 
 // logAxis makes ax logarithmic, with ticks at the decades when the values
@@ -110,6 +127,7 @@ func chart(title, xlabel, ylabel string, lines []Line, logY bool) (*plot.Plot, e
 		return nil, errors.New("no lines to draw")
 	}
 	p := plot.New()
+	p.X.Tick.Marker, p.Y.Tick.Marker = plainTicks{}, plainTicks{}
 	p.Title.Text = title
 	p.X.Label.Text = xlabel
 	p.Y.Label.Text = ylabel
