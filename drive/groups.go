@@ -206,6 +206,10 @@ func summarizeSwimmers(sum *Summary, sim *Simulation, tr *periodTracker) {
 		}
 		gap.Rate, gap.Uncertainty, gap.Trend = gapTrend(gs, T, skip, speed)
 		sum.Gaps = append(sum.Gaps, gap)
+		if rr := sim.Case.Bodies.RepulsionRange * sim.Lattice.Dx; gap.Min < rr {
+			sum.Warnings = append(sum.Warnings, fmt.Sprintf("swimmers %d and %d touched (gap %.3g m, within the repulsion range %.3g m): "+
+				"contacts here are more elastic than real ones at moderate Stokes number (README, Contacts)", g+1, g+2, gap.Min, rr))
+		}
 	}
 }
 
