@@ -80,18 +80,20 @@ func (s *Simulation) swimmerCentroid(g []int) float64 {
 	return s.physicalZ(z / float64(len(g)))
 }
 
+// sphereZ returns sphere k's centre (m, container frame): SphereState's
+// z without the velocity and force, for the per-step gap tracking.
+func (s *Simulation) sphereZ(k int) float64 { return s.physicalZ(s.sw.dyn.Z[k]) }
+
 // swimmerGap returns the surface-to-surface gap (m) between swimmers a
 // (below) and b (above): the lowest surface of b less the highest surface
 // of a.
 func (s *Simulation) swimmerGap(a, b []int) float64 {
 	top, bottom := math.Inf(-1), math.Inf(1)
 	for _, k := range a {
-		z, _, _ := s.SphereState(k)
-		top = math.Max(top, z+s.Case.Spheres[k].Radius)
+		top = math.Max(top, s.sphereZ(k)+s.Case.Spheres[k].Radius)
 	}
 	for _, k := range b {
-		z, _, _ := s.SphereState(k)
-		bottom = math.Min(bottom, z-s.Case.Spheres[k].Radius)
+		bottom = math.Min(bottom, s.sphereZ(k)-s.Case.Spheres[k].Radius)
 	}
 	return bottom - top
 }
@@ -102,9 +104,9 @@ func (s *Simulation) minSurfaceGap() (gap float64, i, j int) {
 	gap = math.Inf(1)
 	n := s.Spheres()
 	for a := range n {
-		za, _, _ := s.SphereState(a)
+		za := s.sphereZ(a)
 		for b := a + 1; b < n; b++ {
-			zb, _, _ := s.SphereState(b)
+			zb := s.sphereZ(b)
 			if g := math.Abs(zb-za) - s.Case.Spheres[a].Radius - s.Case.Spheres[b].Radius; g < gap {
 				gap, i, j = g, a, b
 			}
@@ -187,7 +189,7 @@ func summarizeSwimmers(sum *Summary, sim *Simulation, tr *periodTracker) {
 		if sp.Swimming {
 			best := math.Inf(-1)
 			for _, k := range members {
-				z, _, _ := sim.SphereState(k)
+				z := sim.sphereZ(k)
 				if v := math.Copysign(1, sp.Mean) * z; v > best {
 					best, ss.LeadingSphere = v, k+1
 				}
