@@ -72,6 +72,16 @@ func cmdModel(args []string, stdout, stderr io.Writer) error {
 			fmt.Fprintf(stdout, "  %-7d %14.4g %12.1f %16.4g\n", a.Arm, a.Force, a.ForcePhase, a.Power)
 		}
 	}
+	if len(r.Stokes) > 0 {
+		fmt.Fprintf(stdout, "\n  %-8s %-12s %22s %22s\n", "swimmer", "spheres", "Stokes speed (m/s)", "leading order (m/s)")
+		for _, s := range r.Stokes {
+			lo := "-"
+			if s.LeadingOrder != nil {
+				lo = fmt.Sprintf("%.4g", *s.LeadingOrder)
+			}
+			fmt.Fprintf(stdout, "  %-8d %-12s %22.4g %22s\n", s.Swimmer, fmt.Sprint(s.Spheres), s.Speed, lo)
+		}
+	}
 	fmt.Fprintln(stdout, "\nnotes:")
 	for _, n := range r.Notes {
 		fmt.Fprintf(stdout, "  - %s\n", n)

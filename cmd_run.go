@@ -186,10 +186,14 @@ func printSummary(w io.Writer, dir string, sum *drive.Summary) {
 			fmt.Fprintf(w, "  net displacement of the centroid %.4g m over the whole run\n", *sum.NetDisplacement)
 		}
 		for _, c := range sum.Comparison {
+			model := "linear model"
+			if c.Source != "" {
+				model = c.Source
+			}
 			if c.Ratio != nil {
-				fmt.Fprintf(w, "  %-52s simulated %.4g, linear model %.4g (ratio %.3f)\n", c.Quantity, c.Simulated, c.Model, *c.Ratio)
+				fmt.Fprintf(w, "  %-52s simulated %.4g, %s %.4g (ratio %.3f)\n", c.Quantity, c.Simulated, model, c.Model, *c.Ratio)
 			} else {
-				fmt.Fprintf(w, "  %-52s simulated %.4g, linear model %.4g\n", c.Quantity, c.Simulated, c.Model)
+				fmt.Fprintf(w, "  %-52s simulated %.4g, %s %.4g\n", c.Quantity, c.Simulated, model, c.Model)
 			}
 		}
 	}

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"strings"
 	"time"
 
 	"axiswim/drive/verify"
@@ -18,29 +19,48 @@ func cmdVerify(args []string, stdout, stderr io.Writer) error {
 	full := fs.Bool("full", false, "also run the long convergence studies")
 	threads := fs.Int("threads", 0, "goroutines for the solver (0: all cores)")
 	quiet := fs.Bool("quiet", false, "no progress on stderr")
+	only := fs.String("only", "", "run only these checks, quick or full (comma-separated names, as 'verify -list' prints them)")
+	list := fs.Bool("list", false, "list the checks and stop")
 	single := fs.Bool("float32", false, "store the populations in float32 (solver.precision = \"float32\") in every check")
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: axiswim verify [-full] [-float32] [-threads N] [-quiet]")
+		fmt.Fprintln(stderr, "usage: axiswim verify [-full] [-only NAME,...] [-list] [-float32] [-threads N] [-quiet]")
 		fs.PrintDefaults()
 	}
 	if err := parseFlags(fs, args); err != nil {
 		return err
 	}
+	if *list {
+		for _, c := range verify.Checks() {
+			kind := "quick"
+			if c.Full {
+				kind = "full"
+			}
+			fmt.Fprintf(stdout, "%-28s %s\n", c.Name, kind)
+		}
+		return nil
+	}
+	var checks []verify.Check
+	if *only != "" {
+		var err error
+		if checks, err = verify.Select(strings.Split(*only, ",")); err != nil {
+			return fmt.Errorf("-only %s: %w", *only, err)
+		}
+	} else {
+		for _, c := range verify.Checks() {
+			if !c.Full || *full {
+				checks = append(checks, c)
+			}
+		}
+	}
 	start := time.Now()
 	header := true
 	fails, total := 0, 0
-	n := 0
-	for _, c := range verify.Checks() {
-		if !c.Full || *full {
-			n++
-		}
-	}
-	prog := output.NewProgress(stderr, *quiet, int64(n), "checks", "verify")
+	prog := output.NewProgress(stderr, *quiet, int64(len(checks)), "checks", "verify")
 	done := 0
 	if *single {
 		fmt.Fprintln(stdout, "populations stored in float32 (-float32)")
 	}
-	_, err := verify.Run(*full, verify.Options{Threads: *threads, Single: *single}, func(c verify.Check, rows []verify.Row) {
+	_, err := verify.RunChecks(checks, verify.Options{Threads: *threads, Single: *single}, func(c verify.Check, rows []verify.Row) {
 		done++
 		prog.Set(int64(done), c.Name)
 		if header {

@@ -67,6 +67,11 @@ func TestTrain(t *testing.T) {
 	if sum.MinSurfaceGap == nil || *sum.MinSurfaceGap <= 0 {
 		t.Errorf("spheres came within %v m of each other", sum.MinSurfaceGap)
 	}
+	for _, w := range sum.Warnings {
+		if strings.Contains(w, "touched") {
+			t.Errorf("the train's swimmers never meet, but: %s", w)
+		}
+	}
 	data, err := os.ReadFile(filepath.Join(whole, "periods.csv"))
 	if err != nil {
 		t.Fatal(err)
@@ -101,4 +106,62 @@ func mustCase(t *testing.T, name string, src []byte) (*cases.Case, *cases.Lattic
 		t.Fatal(err)
 	}
 	return c, l
+}
+
+// TestTouchWarning: two lone neutrally buoyant spheres placed one cell
+// apart, closer than the repulsion range (2 cells), are pushed apart by
+// it; the run warns that the swimmers touched, names them and points to
+// the README's measured restitution. The train of TestTrain, whose gap
+// stays millimetres wide, gets no such warning.
+func TestTouchWarning(t *testing.T) {
+	src := []byte(`
+[fluid]
+density = 1000.0
+viscosity = 0.01
+[container]
+radius = 2e-3
+length = 8e-3
+[shaking]
+frequency = 20.0
+amplitude = 1e-6
+gravity = 0.0
+ramp_periods = 0.0
+[[sphere]]
+radius = 0.5e-3
+density = 1000.0
+z = -0.55e-3
+[[sphere]]
+radius = 0.5e-3
+density = 1000.0
+z = 0.55e-3
+[bodies]
+repulsion_range = 2.0
+[grid]
+cells_per_radius = 5
+[output]
+vtk = false
+pictures = false
+[run]
+periods = 2
+`)
+	c, l := mustCase(t, "touch", src)
+	sum, err := Run(context.Background(), c, l, Options{Out: t.TempDir(), Threads: 1, Quiet: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(sum.Gaps) != 1 {
+		t.Fatalf("%d gaps, want 1", len(sum.Gaps))
+	}
+	var touched []string
+	for _, w := range sum.Warnings {
+		if strings.Contains(w, "touched") {
+			touched = append(touched, w)
+		}
+	}
+	if len(touched) != 1 || !strings.Contains(touched[0], "swimmers 1 and 2") || !strings.Contains(touched[0], "README, Contacts") {
+		t.Errorf("touch warnings %q; want one naming swimmers 1 and 2 (gaps %+v)", touched, sum.Gaps[0])
+	}
+	if g := sum.Gaps[0]; !(g.Final > g.Initial) {
+		t.Errorf("gap %.3g m -> %.3g m: the repulsion should have pushed the spheres apart", g.Initial, g.Final)
+	}
 }

@@ -22,6 +22,9 @@ type ModelResult struct {
 	Spheres        []ModelSphere `json:"spheres"`
 	Springs        []ModelSpring `json:"springs"`
 	Arms           []ModelArm    `json:"arms"`
+	// Stokes is how each swimmer of a case driven by arms alone swims in
+	// steady Stokes flow (StokesChain); absent for other cases.
+	Stokes []StokesSwimmer `json:"stokes_swimming,omitempty"`
 	// Notes say what the model leaves out, and what it could not do
 	// (static extensions that springs cannot hold, for instance).
 	Notes []string `json:"notes"`
@@ -234,6 +237,15 @@ func Model(c *cases.Case) (*ModelResult, error) {
 		res.Arms = append(res.Arms, ModelArm{Arm: a + 1, Force: cmplx.Abs(push), ForcePhase: modelPhase(push), Power: power})
 	}
 	res.Notes = modelNotes(c, f, res, offFrequency, staticNotes)
+	if len(c.Arms) > 0 {
+		st, err := StokesChain(c)
+		if err != nil {
+			res.Notes = append(res.Notes, "no steady-Stokes swimming speed: "+err.Error())
+		} else {
+			res.Stokes = st
+			res.Notes = append(res.Notes, stokesNotes(c, 2*math.Pi*f))
+		}
+	}
 	return res, nil
 }
 

@@ -93,6 +93,9 @@ type Comparison struct {
 	Simulated float64  `json:"simulated"`
 	Model     float64  `json:"model"`
 	Ratio     *float64 `json:"ratio,omitempty"` // simulated/model for amplitudes
+	// Source names the model when it is not the reduced linear model
+	// (the steady-Stokes chain model, for instance).
+	Source string `json:"source,omitempty"`
 }
 
 // LatticeSummary records the lattice parameters of a run.
@@ -396,6 +399,7 @@ loop:
 	if tracker != nil {
 		summarizeSwimmer(sum, sim, tracker)
 		summarizeSwimmers(sum, sim, tracker)
+		compareStokes(sum)
 		if g := tracker.minGap; !math.IsInf(g, 0) {
 			sum.MinSurfaceGap = &g
 		}

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"math"
+	"slices"
 	"testing"
 
 	"axiswim/cases"
@@ -62,5 +63,21 @@ func TestThreeSphereStroke(t *testing.T) {
 	}
 	if r := math.Abs(*rec.NetDisplacement / *lag.NetDisplacement); !(r < 0.02) {
 		t.Errorf("reciprocal stroke: net displacement %.3g of the lagged one's", r)
+	}
+	// The summary sets the speed beside the steady-Stokes chain model and
+	// the leading-order formula, flagged as outside their range here
+	// (omega L^2/nu = 3.4 > StokesMaxUnsteady).
+	var sources []string
+	for _, c := range lag.Comparison {
+		if c.Source != "" {
+			sources = append(sources, c.Source)
+			if c.Simulated != u || c.Ratio == nil {
+				t.Errorf("%s: simulated %g, ratio %v; want the mean speed %g and a ratio", c.Source, c.Simulated, c.Ratio, u)
+			}
+		}
+	}
+	want := []string{"Stokes chain model (outside its range, see the model notes)", "three-sphere leading order"}
+	if !slices.Equal(sources, want) {
+		t.Errorf("speed comparisons %q, want %q", sources, want)
 	}
 }

@@ -2,6 +2,7 @@ package verify
 
 import (
 	"fmt"
+	"strings"
 
 	"axiswim/cases"
 	"axiswim/drive"
@@ -53,21 +54,32 @@ func Checks() []Check {
 		{Name: "steady-streaming", Run: checkStreaming},
 		{Name: "scallop", Run: checkScallop},
 		{Name: "symmetric-pair", Run: checkSymmetric},
+		{Name: "three-sphere-stokes", Run: checkThreeSphere},
 		{Name: "womersley-fine", Full: true, Run: checkWomersleyFine},
 		{Name: "sphere-translating-fine", Full: true, Run: checkTranslatingFine},
 		{Name: "demo-resolution", Full: true, Run: checkDemoResolution},
 		{Name: "demo-float32", Full: true, Run: checkDemoPrecision},
+		{Name: "three-sphere-container", Full: true, Run: checkThreeSphereContainer},
 	}
 }
 
 // Run runs the quick checks, and with full the long ones too, calling each
 // (when not nil) after every check with its rows.
 func Run(full bool, o Options, each func(c Check, rows []Row)) ([]Row, error) {
-	var all []Row
+	var list []Check
 	for _, c := range Checks() {
-		if c.Full && !full {
-			continue
+		if !c.Full || full {
+			list = append(list, c)
 		}
+	}
+	return RunChecks(list, o, each)
+}
+
+// RunChecks runs the given checks in order, calling each (when not nil)
+// after every check with its rows.
+func RunChecks(list []Check, o Options, each func(c Check, rows []Row)) ([]Row, error) {
+	var all []Row
+	for _, c := range list {
 		rows, err := c.Run(o)
 		if err != nil {
 			return all, fmt.Errorf("verify %s: %w", c.Name, err)
@@ -78,4 +90,34 @@ func Run(full bool, o Options, each func(c Check, rows []Row)) ([]Row, error) {
 		all = append(all, rows...)
 	}
 	return all, nil
+}
+
+// Select returns the checks named in names, in the order of Checks, quick
+// or full; an unknown name is an error listing the known ones.
+func Select(names []string) ([]Check, error) {
+	all := Checks()
+	want := map[string]bool{}
+	for _, n := range names {
+		found := false
+		for _, c := range all {
+			if c.Name == n {
+				found = true
+			}
+		}
+		if !found {
+			known := make([]string, len(all))
+			for i, c := range all {
+				known[i] = c.Name
+			}
+			return nil, fmt.Errorf("no verification check %q; the checks are: %s", n, strings.Join(known, ", "))
+		}
+		want[n] = true
+	}
+	var out []Check
+	for _, c := range all {
+		if want[c.Name] {
+			out = append(out, c)
+		}
+	}
+	return out, nil
 }
