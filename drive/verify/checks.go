@@ -55,6 +55,7 @@ func Checks() []Check {
 		{Name: "scallop", Run: checkScallop},
 		{Name: "symmetric-pair", Run: checkSymmetric},
 		{Name: "three-sphere-stokes", Run: checkThreeSphere},
+		{Name: "contact-restitution", Run: checkContact},
 		{Name: "womersley-fine", Full: true, Run: checkWomersleyFine},
 		{Name: "sphere-translating-fine", Full: true, Run: checkTranslatingFine},
 		{Name: "demo-resolution", Full: true, Run: checkDemoResolution},

@@ -1,0 +1,99 @@
+package verify
+
+import (
+	"fmt"
+	"math"
+
+	"axiswim/cases"
+)
+
+// bounceCase is a glass-like sphere of our own (radius 0.5 mm, density
+// 2500 kg/m^3, 8 cells per radius) released at rest with its surface
+// 4.5 mm above the bottom end of a closed container (radius 4 mm, 16 mm
+// long) in a liquid of density 1000 and viscosity mu, under gravity; the
+// contact with the end wall is the short-range repulsion of the given
+// range (cells).
+func bounceCase(mu, rangeCells, duration float64) *cases.Case {
+	const a = 0.5e-3
+	c := cases.Default()
+	c.Fluid = cases.Fluid{Density: 1000, Viscosity: mu}
+	c.Container = cases.Container{Radius: 4e-3, Length: 16e-3, Ends: cases.EndsClosed}
+	c.Shaking = cases.Shaking{Gravity: 9.81}
+	c.Spheres = []cases.Sphere{{Radius: a, Density: 2500, Z: -8e-3 + a + 4.5e-3}}
+	c.Bodies.RepulsionRange = rangeCells
+	c.Grid.CellsPerRadius = 8
+	c.Run.Duration = duration
+	c.FillDefaults()
+	return c
+}
+
+// bounce runs c and returns the impact speed (the largest downward speed
+// before the first rebound), the rebound speed (the largest upward speed
+// after it) and the Stokes number St = rho_s U (2a) / (9 mu) of the impact.
+func bounce(c *cases.Case, o Options) (impact, rebound, st float64, err error) {
+	sim, err := setup(c, o)
+	if err != nil {
+		return 0, 0, 0, err
+	}
+	defer sim.Close()
+	steps := int(math.Ceil(c.Run.Duration / sim.Lattice.Dt))
+	up := false
+	for n := 0; n < steps; n++ {
+		if err := sim.Advance(1); err != nil {
+			return 0, 0, 0, fmt.Errorf("step %d: %w", n, err)
+		}
+		_, v, _ := sim.SphereState(0)
+		switch {
+		case !up && v > 0:
+			up = true
+		case !up:
+			impact = math.Max(impact, -v)
+		default:
+			rebound = math.Max(rebound, v)
+		}
+	}
+	s := c.Spheres[0]
+	return impact, rebound, s.Density * impact * 2 * s.Radius / (9 * c.Fluid.Viscosity), nil
+}
+
+// checkContact measures the effective restitution of a contact in the
+// liquid (issue 9: documented, measured): the sphere of bounceCase
+// settles onto the end wall at two viscosities (impact Stokes numbers
+// about 4.2 and 0.7) with repulsion_range = 4 cells (the default 2 lets
+// this impact close the gap below one cell, and the run stops there with
+// its explanation; README, Contacts). The coefficient e = rebound speed /
+// impact speed must be below 1 (a passive contact cannot return more
+// energy than it received: the repulsion is conservative and the liquid
+// dissipates) and rise with St (as in experiments). The values are set
+// beside the experiments, where spheres do not rebound below St of about
+// 10 (Joseph, Zenit, Hunt & Rosenwinkel 2001, J. Fluid Mech. 433, 329;
+// Gondret, Lance & Petit 2002, Phys. Fluids 14, 643: from memory, not
+// checked against the papers): measured e = 0.54 at St = 4.2 and 0.18 at
+// St = 0.72, so contacts here are too elastic at moderate St (the
+// unresolved lubrication film below a cell, and a conservative force
+// where the real film dissipates).
+func checkContact(o Options) ([]Row, error) {
+	var e, st [2]float64
+	for i, mu := range []float64{0.0049, 0.0147} {
+		u, r, s, err := bounce(bounceCase(mu, 4, 0.15), o)
+		if err != nil {
+			return nil, fmt.Errorf("mu = %g: %w", mu, err)
+		}
+		if !(u > 0) {
+			return nil, fmt.Errorf("mu = %g: the sphere did not fall", mu)
+		}
+		e[i], st[i] = r/u, s
+	}
+	rises := e[1] < e[0]
+	src := "experiments: no rebound below St ~ 10 (Joseph et al. 2001; Gondret et al. 2002; from memory): too elastic"
+	rows := []Row{
+		boundRow("contact with end wall", fmt.Sprintf("restitution e, St = %.2g", st[0]), e[0], 1, "passive contact: e < 1"),
+		{Case: "contact with end wall", Quantity: fmt.Sprintf("restitution e, St = %.2g", st[1]), Computed: e[1], Error: e[1],
+			Tolerance: e[0], Unit: "bound", Source: "e rises with St (smaller than at the larger St)", Pass: rises},
+	}
+	for i := range e {
+		rows = append(rows, Row{Case: "contact with end wall", Quantity: fmt.Sprintf("e against experiment, St = %.2g", st[i]),
+			Computed: e[i], Error: e[i], Tolerance: math.Inf(1), Unit: "info", Source: src, Pass: e[0] < 1 && rises})
+	}
+	return rows, nil
+}
