@@ -1,9 +1,11 @@
 package drive
 
 import (
+	"cmp"
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 
 	"gonum.org/v1/gonum/mat"
 
@@ -153,15 +155,8 @@ func threeSphereCase(c *cases.Case, gr []int, f float64) (v float64, ok bool) {
 	if len(gr) != 3 {
 		return 0, false
 	}
-	k := append([]int(nil), gr...)
-	byZ := func(i, j int) bool { return c.Spheres[k[i]].Z < c.Spheres[k[j]].Z }
-	for i := 0; i < 3; i++ { // three elements: a bubble sort reads best
-		for j := 0; j+1 < 3-i; j++ {
-			if byZ(j+1, j) {
-				k[j], k[j+1] = k[j+1], k[j]
-			}
-		}
-	}
+	k := slices.Clone(gr)
+	slices.SortFunc(k, func(i, j int) int { return cmp.Compare(c.Spheres[i].Z, c.Spheres[j].Z) })
 	a := c.Spheres[k[0]].Radius
 	if c.Spheres[k[1]].Radius != a || c.Spheres[k[2]].Radius != a {
 		return 0, false

@@ -1,6 +1,7 @@
 package drive
 
 import (
+	"fmt"
 	"math"
 	"testing"
 
@@ -97,4 +98,28 @@ func TestStokesChainRefuses(t *testing.T) {
 			t.Errorf("%s: no error", name)
 		}
 	}
+}
+
+func ExampleStokesChain() {
+	src, err := cases.Get("three-sphere-lag")
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	c, err := cases.Parse("three-sphere-lag", src)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	swimmers, err := StokesChain(c)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, s := range swimmers {
+		fmt.Printf("swimmer %d (spheres %v): %.3g um/s in steady Stokes flow, %.3g um/s to leading order in a/L\n",
+			s.Swimmer, s.Spheres, s.Speed*1e6, *s.LeadingOrder*1e6)
+	}
+	// Output:
+	// swimmer 1 (spheres [1 2 3]): 49.6 um/s in steady Stokes flow, 45.8 um/s to leading order in a/L
 }
