@@ -208,8 +208,12 @@ func printSummary(w io.Writer, dir string, sum *drive.Summary) {
 		fmt.Fprintln(w, line)
 	}
 	for _, g := range sum.Gaps {
-		fmt.Fprintf(w, "  gap between swimmers %d and %d: %.4g -> %.4g m (least %.4g), %s at %.3g +- %.2g m/s\n",
-			g.Swimmers[0], g.Swimmers[1], g.Initial, g.Final, g.Min, g.Trend, g.Rate, g.Uncertainty)
+		trend := fmt.Sprintf("%s at %.3g +- %.2g m/s", g.Trend, math.Abs(g.Rate), g.Uncertainty)
+		if g.Trend == drive.GapLocked {
+			trend = fmt.Sprintf("%s (rate %.3g +- %.2g m/s)", g.Trend, g.Rate, g.Uncertainty)
+		}
+		fmt.Fprintf(w, "  gap between swimmers %d and %d: %.4g -> %.4g m (least %.4g), %s\n",
+			g.Swimmers[0], g.Swimmers[1], g.Initial, g.Final, g.Min, trend)
 	}
 	fmt.Fprintf(w, "  liquid: max Mach %.3g, max mass drift %.2g\n", sum.MaxMach, sum.MaxMassDrift)
 	for _, x := range sum.Warnings {
