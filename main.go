@@ -48,7 +48,7 @@ func commands() []command {
 		{"run", "[-out DIR] [-threads N] [-quiet] [-force] [CASE.toml]",
 			"run a case (with no case, the embedded demo); -resume DIR continues one", cmdRun},
 		{"check", "[-threads N] [-quiet] CASE.toml", "validate a case and show its groups, lattice, memory and run-time estimate", cmdCheck},
-		{"verify", "[-full] [-threads N] [-quiet]", "run the verification cases against analytic and published values", cmdVerify},
+		{"verify", "[-full] [-only NAME,...] [-quiet]", "run the verification cases against analytic and published values", cmdVerify},
 		{"cases", "[NAME]", "list the embedded example cases, or print one", cmdCases},
 		{"model", "[-json] CASE.toml", "solve the reduced linear model: sphere and spring amplitudes and phases", cmdModel},
 		{"sweep", "[-out DIR] [-jobs N] SWEEP.toml | -resume DIR", "run every point of a sweep (one or two case keys varied) and write results.csv; -plan: a Slurm array job instead", cmdSweep},

@@ -257,3 +257,21 @@ func TestHelpFlag(t *testing.T) {
 		}
 	}
 }
+
+// TestVerifySelect: verify -list names every check, quick and full;
+// verify -only runs just the named one (the cheapest, Kelvin functions);
+// an unknown name is refused with the list of known ones.
+func TestVerifySelect(t *testing.T) {
+	code, out, _ := run(t, "verify", "-list")
+	if code != exitOK || !strings.Contains(out, "three-sphere-container") || !strings.Contains(out, "kelvin-functions") {
+		t.Errorf("verify -list: exit %d\n%s", code, out)
+	}
+	code, out, errOut := run(t, "verify", "-quiet", "-only", "kelvin-functions")
+	if code != exitOK || !strings.Contains(out, "kelvin functions") || !strings.Contains(out, "10 passed") || strings.Contains(out, "poiseuille") {
+		t.Errorf("verify -only kelvin-functions: exit %d\n%s%s", code, out, errOut)
+	}
+	code, _, errOut = run(t, "verify", "-only", "kelvin,hagen-poiseuille")
+	if code == exitOK || !strings.Contains(errOut, `no verification check "kelvin"`) || !strings.Contains(errOut, "kelvin-functions") {
+		t.Errorf("verify -only with an unknown name: exit %d, stderr %q", code, errOut)
+	}
+}
