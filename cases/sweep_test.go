@@ -80,24 +80,42 @@ func TestSweepErrors(t *testing.T) {
 	}
 }
 
-// TestExampleSweep: the sweep shipped in cases/sweeps reads and its points
-// are valid cases.
+// TestExampleSweep: the sweeps shipped in cases/sweeps read, span the
+// ranges they say, and their points are valid cases warning only of their
+// coarse resolution.
 func TestExampleSweep(t *testing.T) {
-	s, err := LoadSweep("sweeps/amplitude.toml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	pts := s.Points()
-	if len(pts) != 5 || pts[0][0] != 5e-5 || pts[4][0] != 4e-4 || !s.Params[0].Log {
-		t.Fatalf("points %v", pts)
-	}
-	for _, pt := range pts {
-		_, c, err := s.CaseAt(pt)
+	for _, c := range []struct {
+		file   string
+		lo, hi float64
+	}{
+		{"sweeps/amplitude.toml", 5e-5, 4e-4},
+		{"sweeps/three-sphere-viscosity.toml", 0.4, 0.01},
+	} {
+		s, err := LoadSweep(c.file)
 		if err != nil {
 			t.Fatal(err)
 		}
-		if _, err := Resolve(c); err != nil {
-			t.Errorf("point %s: %v", s.Label(pt), err)
+		pts := s.Points()
+		if len(pts) != 5 || pts[0][0] != c.lo || pts[4][0] != c.hi || !s.Params[0].Log {
+			t.Fatalf("%s: points %v", c.file, pts)
+		}
+		for _, pt := range pts {
+			_, cs, err := s.CaseAt(pt)
+			if err != nil {
+				t.Fatal(err)
+			}
+			l, err := Resolve(cs)
+			if err != nil {
+				t.Errorf("%s point %s: %v", c.file, s.Label(pt), err)
+				continue
+			}
+			for _, w := range l.Warnings {
+				// Coarse on purpose (quick looks): the spheres' and the
+				// Stokes layer's cells may be few; nothing else may warn.
+				if !strings.Contains(w, "cells per radius, below") && !strings.Contains(w, "Stokes layer is only") {
+					t.Errorf("%s point %s: %s", c.file, s.Label(pt), w)
+				}
+			}
 		}
 	}
 }

@@ -267,7 +267,9 @@ func ReadSummary(dir string) (*Summary, error) {
 
 // WriteSweepResults writes results.csv: one row per point with the varied
 // values, the dimensionless groups of sphere 1, the mean speed and its
-// uncertainty, whether it converged, the leading sphere, spring 1's
+// uncertainty, the steady-Stokes model's speed and whether the point is in
+// its range (for a single swimmer driven by arms alone, see StokesChain;
+// empty otherwise), whether it converged, the leading sphere, spring 1's
 // extension amplitude and phase, the wall time, the point it was warm
 // started from (empty: from rest) and the status.
 func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error {
@@ -276,7 +278,7 @@ func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error
 	for _, p := range s.Params {
 		head = append(head, p.Key)
 	}
-	head = append(head, "epsilon", "M2", "Re", "Re_s", "mean_speed_m_s", "speed_uncertainty_m_s", "converged",
+	head = append(head, "epsilon", "M2", "Re", "Re_s", "mean_speed_m_s", "speed_uncertainty_m_s", "model_speed_m_s", "model_in_range", "converged",
 		"leading_sphere", "extension_amplitude_m", "extension_phase_deg", "wall_time_s", "warm_start", "status")
 	b.WriteString(strings.Join(head, ",") + "\n")
 	num := func(v float64) string {
@@ -294,8 +296,9 @@ func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error
 		eps, m2, re, res := nan, nan, nan, nan
 		speed, unc, amp, ph, wall := nan, nan, nan, nan, nan
 		conv, lead, warm := "", "", ""
+		model, inRange := sweepModelSpeed(r.Summary)
 		if sum := r.Summary; sum != nil {
-			if len(sum.Groups) > 0 {
+			if len(sum.Groups) > 0 && sum.Groups[0].Delta > 0 { // the groups of the shaking; empty without
 				g := sum.Groups[0]
 				eps, m2, re, res = g.Epsilon, g.M2, g.Re, g.ReS
 			}
@@ -331,7 +334,7 @@ func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error
 		case r.Summary == nil || !r.Summary.Completed:
 			status = "not finished"
 		}
-		row = append(row, num(eps), num(m2), num(re), num(res), num(speed), num(unc), conv, lead,
+		row = append(row, num(eps), num(m2), num(re), num(res), num(speed), num(unc), num(model), inRange, conv, lead,
 			num(amp), num(ph), num(wall), csvQuote(warm), csvQuote(status))
 		b.WriteString(strings.Join(row, ",") + "\n")
 	}
@@ -339,6 +342,18 @@ func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error
 		return fmt.Errorf("write %s: %w", path, err)
 	}
 	return nil
+}
+
+// sweepModelSpeed returns the steady-Stokes chain model's speed of the
+// run's swimmer and "true"/"false" for whether the case is in the model's
+// range, or NaN and "" when the summary has none (shaken cases, springs,
+// several swimmers).
+func sweepModelSpeed(sum *Summary) (float64, string) {
+	if sum == nil || sum.Model == nil || len(sum.Model.Stokes) != 1 {
+		return math.NaN(), ""
+	}
+	st := sum.Model.Stokes[0]
+	return st.Speed, strconv.FormatBool(st.InRange)
 }
 
 // csvQuote quotes a CSV field when it holds a comma, quote or newline.
@@ -368,19 +383,22 @@ func SweepFailures(results []SweepResult) error {
 
 // WriteSweepPictures draws the mean speed of the points with its error bar
 // against the first varied key (one line per value of the second), as
-// speed.png, and against the streaming Reynolds number of sphere 1 as
-// speed_re_s.png, in the sweep directory. Points without a speed are left
-// out; with fewer than two points nothing is drawn.
+// speed.png, and, when every point is shaken, against the streaming
+// Reynolds number of sphere 1 as speed_re_s.png, in the sweep directory.
+// Where the points have a steady-Stokes model speed (StokesChain), it is
+// drawn beside them. Points without a speed are left out; with fewer than
+// two points nothing is drawn.
 func WriteSweepPictures(dir string, s *cases.Sweep, results []SweepResult) error {
-	type pt struct{ x, res, v, e float64 }
+	type pt struct{ x, res, v, e, model float64 }
 	lines := map[float64][]pt{}
 	var order []float64
-	n := 0
+	n, shaken := 0, true
 	for _, r := range results {
 		sum := r.Summary
 		if sum == nil || sum.MeanVelocity == nil || sum.MeanVelocityUncertainty == nil || len(sum.Groups) == 0 {
 			continue
 		}
+		shaken = shaken && sum.Groups[0].ReS > 0
 		key := 0.0
 		if len(r.Point) > 1 {
 			key = r.Point[1]
@@ -388,7 +406,8 @@ func WriteSweepPictures(dir string, s *cases.Sweep, results []SweepResult) error
 		if _, ok := lines[key]; !ok {
 			order = append(order, key)
 		}
-		lines[key] = append(lines[key], pt{r.Point[0], sum.Groups[0].ReS, *sum.MeanVelocity, *sum.MeanVelocityUncertainty})
+		model, _ := sweepModelSpeed(sum)
+		lines[key] = append(lines[key], pt{r.Point[0], sum.Groups[0].ReS, *sum.MeanVelocity, *sum.MeanVelocityUncertainty, model})
 		n++
 	}
 	if n < 2 {
@@ -407,16 +426,43 @@ func WriteSweepPictures(dir string, s *cases.Sweep, results []SweepResult) error
 			l2.X, l2.Y, l2.YErr = append(l2.X, p.res), append(l2.Y, p.v), append(l2.YErr, p.e)
 		}
 		byKey, byRe = append(byKey, l1), append(byRe, l2)
+		// The steady-Stokes model beside the measured speeds, where the
+		// points have it.
+		m1 := output.Line{Label: "steady-Stokes model"}
+		m2 := m1
+		if label != "" {
+			m1.Label += ", " + label
+			m2.Label = m1.Label
+		}
+		for _, p := range lines[key] {
+			if !math.IsNaN(p.model) {
+				m1.X, m1.Y = append(m1.X, p.x), append(m1.Y, p.model)
+				m2.X, m2.Y = append(m2.X, p.res), append(m2.Y, p.model)
+			}
+		}
+		if len(m1.X) > 0 {
+			byKey, byRe = append(byKey, m1), append(byRe, m2)
+			name := "simulated"
+			if label != "" {
+				name += ", " + label
+			}
+			byKey[len(byKey)-2].Label, byRe[len(byRe)-2].Label = name, name
+		}
 	}
 	title := s.Title
 	if title == "" {
 		title = "sweep " + s.Name
 	}
-	logX := s.Params[0].Log
+	// With a model, its line often runs along the top: the legend goes
+	// to the bottom.
+	opt := output.ChartOptions{LogX: s.Params[0].Log, LegendBottom: len(byKey) > len(order)}
 	if err := output.WriteChartPNGWith(filepath.Join(dir, "speed.png"), title, s.Params[0].Key,
-		"mean speed (m/s)", byKey, output.ChartOptions{LogX: logX}); err != nil {
+		"mean speed (m/s)", byKey, opt); err != nil {
 		return err
 	}
+	if !shaken {
+		return nil // Re_s is a group of the shaking: no speed_re_s.png without it
+	}
 	return output.WriteChartPNGWith(filepath.Join(dir, "speed_re_s.png"), title, "Re_s = A^2 omega/nu, sphere 1",
-		"mean speed (m/s)", byRe, output.ChartOptions{LogX: logX})
+		"mean speed (m/s)", byRe, opt)
 }

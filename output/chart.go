@@ -34,6 +34,9 @@ type ChartOptions struct {
 	// LegendLeft puts the legend top left (for curves that rise to the
 	// right), not top right.
 	LegendLeft bool
+	// LegendBottom puts it at the bottom (above a model's line drawn
+	// along the top, say).
+	LegendBottom bool
 }
 
 // WriteChartPNGWith is WriteChartPNG with options.
@@ -43,6 +46,7 @@ func WriteChartPNGWith(path, title, xlabel, ylabel string, lines []Line, o Chart
 		return fmt.Errorf("chart %s: %w", path, err)
 	}
 	p.Legend.Left = o.LegendLeft
+	p.Legend.Top = !o.LegendBottom
 	if o.LogX {
 		if err := logAxis(&p.X, "x", lines, func(l Line) []float64 { return l.X }); err != nil {
 			return fmt.Errorf("chart %s: %w", path, err)
@@ -197,6 +201,15 @@ func chart(title, xlabel, ylabel string, lines []Line, logY bool) (*plot.Plot, e
 		}
 		if l.Label != "" {
 			p.Legend.Add(l.Label, thumbs...)
+		}
+	}
+	if !logY {
+		// A margin of 5% of the span above and below, so that a line at
+		// the largest or smallest value (a model's constant, say) is not
+		// drawn on the frame.
+		if span := p.Y.Max - p.Y.Min; span > 0 {
+			p.Y.Min -= 0.05 * span
+			p.Y.Max += 0.05 * span
 		}
 	}
 	return p, nil
