@@ -66,7 +66,19 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintln(stdout)
 
-	if gs := c.Groups(l); len(gs) > 0 {
+	gs := c.Groups(l)
+	shaken := c.Shaking.Frequency > 0 && c.Shaking.Amplitude != 0
+	if len(gs) > 0 && !shaken {
+		fmt.Fprintln(stdout, "\nthe container is not shaken: the groups of the shaking (A/a, M^2, Re, Re_s) do not apply")
+	}
+	if ags := c.ArmGroups(l); len(ags) > 0 {
+		fmt.Fprintln(stdout, "\narm strokes (a = larger sphere of the arm, d = stroke amplitude, L = mean length):")
+		fmt.Fprintf(stdout, "  %-7s %10s %12s %12s %12s %12s\n", "arm", "d/a", "Re=a d w/nu", "w L^2/nu", "delta (m)", "delta/dx")
+		for _, g := range ags {
+			fmt.Fprintf(stdout, "  %-7d %10.4g %12.4g %12.4g %12.4g %12.3g\n", g.Arm, g.DOverA, g.Re, g.Unsteady, g.Delta, g.DeltaCells)
+		}
+	}
+	if len(gs) > 0 && shaken {
 		fmt.Fprintln(stdout, "\ndimensionless groups (A = container amplitude):")
 		fmt.Fprintf(stdout, "  %-7s %10s %10s %10s %10s %12s %12s\n", "sphere", "eps=A/a", "M^2", "Re", "Re_s", "delta (m)", "delta/dx")
 		for _, g := range gs {

@@ -52,3 +52,49 @@ func (c *Case) Groups(l *Lattice) []SphereGroups {
 	}
 	return gs
 }
+
+// ArmGroups are the dimensionless groups of one arm's stroke, with a the
+// larger radius of its two spheres, d its amplitude, L its mean length and
+// ω its angular frequency.
+type ArmGroups struct {
+	Arm      int     `json:"arm"`      // 1-based index
+	DOverA   float64 `json:"d_over_a"` // stroke amplitude over the radius
+	Re       float64 `json:"re"`       // stroke Reynolds number a d ω/ν
+	Unsteady float64 `json:"unsteady"` // ω L²/ν: below about 1 the flow over the arm is quasi-steady
+	// Delta is the Stokes-layer thickness √(2ν/ω) of the stroke in metres,
+	// DeltaCells the same in cells (0 when no lattice is given).
+	Delta      float64 `json:"stokes_layer_m"`
+	DeltaCells float64 `json:"stokes_layer_cells"`
+}
+
+// ArmGroups returns the groups of every arm of c (none without arms). l
+// may be nil; it is used only for DeltaCells.
+func (c *Case) ArmGroups(l *Lattice) []ArmGroups {
+	nu := c.Fluid.Viscosity / c.Fluid.Density
+	var gs []ArmGroups
+	for k, arm := range c.Arms {
+		f := arm.Frequency
+		if f == 0 {
+			f = c.Shaking.Frequency
+		}
+		omega := 2 * math.Pi * f
+		a := 0.0
+		for _, s := range arm.Spheres {
+			if s >= 1 && s <= len(c.Spheres) {
+				a = math.Max(a, c.Spheres[s-1].Radius)
+			}
+		}
+		g := ArmGroups{Arm: k + 1, Re: a * arm.Amplitude * omega / nu, Unsteady: omega * arm.Length * arm.Length / nu}
+		if a > 0 {
+			g.DOverA = arm.Amplitude / a
+		}
+		if omega > 0 {
+			g.Delta = math.Sqrt(2 * nu / omega)
+		}
+		if l != nil && l.Dx > 0 {
+			g.DeltaCells = g.Delta / l.Dx
+		}
+		gs = append(gs, g)
+	}
+	return gs
+}

@@ -1,6 +1,9 @@
 package cases
 
-import "testing"
+import (
+	"math"
+	"testing"
+)
 
 // TestGroupsWorkedExample checks the groups of METHODS.md 11.3 (worked
 // example, [D] arithmetic): large sphere a = 1.5 mm: M² = 56.5,
@@ -38,5 +41,38 @@ func TestGroupsWorkedExample(t *testing.T) {
 	}
 	if g := c.Groups(nil); g[0].DeltaCells != 0 || g[0].M2 != gs[0].M2 {
 		t.Errorf("Groups(nil) = %+v", g[0])
+	}
+}
+
+// TestArmGroups: the groups of the three-sphere-lag example's strokes
+// against a hand calculation: a = 0.5 mm, d = 0.3 mm, L = 3 mm, 5 Hz,
+// nu = 0.1/1200 m^2/s: d/a = 0.6, Re = a d omega/nu = 0.056549,
+// omega L^2/nu = 3.3929, delta = sqrt(2 nu/omega) = 2.3033 mm (5 digits;
+// the tolerance is their rounding).
+func TestArmGroups(t *testing.T) {
+	src, err := Get("three-sphere-lag")
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, err := Parse("three-sphere-lag", src)
+	if err != nil {
+		t.Fatal(err)
+	}
+	gs := c.ArmGroups(nil)
+	if len(gs) != 2 {
+		t.Fatalf("%d arm groups, want 2", len(gs))
+	}
+	for _, g := range gs {
+		for _, q := range []struct {
+			name      string
+			got, want float64
+		}{{"d/a", g.DOverA, 0.6}, {"Re", g.Re, 0.056549}, {"omega L^2/nu", g.Unsteady, 3.3929}, {"delta", g.Delta, 2.3033e-3}} {
+			if math.Abs(q.got-q.want) > 5e-5*q.want {
+				t.Errorf("arm %d: %s = %.6g, want %.5g", g.Arm, q.name, q.got, q.want)
+			}
+		}
+	}
+	if len(Default().ArmGroups(nil)) != 0 {
+		t.Error("groups for a case without arms")
 	}
 }

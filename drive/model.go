@@ -243,7 +243,7 @@ func Model(c *cases.Case) (*ModelResult, error) {
 			res.Notes = append(res.Notes, "no steady-Stokes swimming speed: "+err.Error())
 		} else {
 			res.Stokes = st
-			res.Notes = append(res.Notes, stokesNotes(c, 2*math.Pi*f))
+			res.Notes = append(res.Notes, stokesNotes(c))
 		}
 	}
 	return res, nil

@@ -63,6 +63,7 @@ type Summary struct {
 
 	Streaming  *StreamingSummary    `json:"streaming,omitempty"`
 	Groups     []cases.SphereGroups `json:"groups,omitempty"`
+	Arms       []cases.ArmGroups    `json:"arm_groups,omitempty"` // the groups of each arm's stroke
 	Model      *ModelResult         `json:"model,omitempty"`
 	Comparison []Comparison         `json:"model_comparison,omitempty"`
 
@@ -205,6 +206,7 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 		Title:    c.Run.Title,
 		Warnings: append([]string{}, l.Warnings...),
 		Groups:   c.Groups(l),
+		Arms:     c.ArmGroups(l),
 		Lattice: LatticeSummary{Nz: l.Nz, Nr: l.Nr, CellSize: l.Dx, TimeStep: l.Dt, Tau: l.Tau,
 			StepsPerPeriod: l.StepsPerPeriod, Bound: l.Bound, Threads: sim.Fluid.Threads()},
 		WarmStart: warm,

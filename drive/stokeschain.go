@@ -102,7 +102,7 @@ func StokesChain(c *cases.Case) ([]StokesSwimmer, error) {
 	if err != nil {
 		return nil, err
 	}
-	re, un := stokesNumbers(c, m.omega)
+	re, un := stokesNumbers(c)
 	zero := 0.0 // speeds below the integration's round-off are zero
 	for _, a := range c.Arms {
 		zero = math.Max(zero, 1e-12*a.Amplitude*m.omega)
@@ -326,15 +326,11 @@ func (m *stokesChain) integrate(z []float64, T float64, steps int) ([]float64, e
 	return z, nil
 }
 
-// stokesNumbers returns the largest stroke Reynolds number ρ a d ω/μ (a
-// the larger sphere of the arm) and the largest unsteady number ω L²/ν of
-// the arms of c.
-func stokesNumbers(c *cases.Case, omega float64) (re, unsteady float64) {
-	rho, mu := c.Fluid.Density, c.Fluid.Viscosity
-	for _, arm := range c.Arms {
-		a := math.Max(c.Spheres[arm.Spheres[0]-1].Radius, c.Spheres[arm.Spheres[1]-1].Radius)
-		re = math.Max(re, rho*a*arm.Amplitude*omega/mu)
-		unsteady = math.Max(unsteady, omega*arm.Length*arm.Length*rho/mu)
+// stokesNumbers returns the largest stroke Reynolds number ρ a d ω/μ and
+// the largest unsteady number ω L²/ν of the arms of c (cases.ArmGroups).
+func stokesNumbers(c *cases.Case) (re, unsteady float64) {
+	for _, g := range c.ArmGroups(nil) {
+		re, unsteady = math.Max(re, g.Re), math.Max(unsteady, g.Unsteady)
 	}
 	return re, unsteady
 }
@@ -342,8 +338,8 @@ func stokesNumbers(c *cases.Case, omega float64) (re, unsteady float64) {
 // stokesNotes says when the chain model's speeds apply to c: the stroke
 // Reynolds number and the unsteady number ω L²/ν well below 1, and a
 // container many swimmer lengths across.
-func stokesNotes(c *cases.Case, omega float64) string {
-	re, s := stokesNumbers(c, omega)
+func stokesNotes(c *cases.Case) string {
+	re, s := stokesNumbers(c)
 	span := 0.0
 	for _, gr := range Swimmers(c) {
 		lo, hi := math.Inf(1), math.Inf(-1)
