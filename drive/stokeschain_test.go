@@ -123,3 +123,44 @@ func ExampleStokesChain() {
 	// Output:
 	// swimmer 1 (spheres [1 2 3]): 49.6 um/s in steady Stokes flow, 45.8 um/s to leading order in a/L
 }
+
+// TestStokesChainSwimmers: two copies of the lagged three-sphere swimmer
+// far apart (1000 arm lengths: their interaction, a force dipole's flow,
+// falls as 1/r^2, here 1e-6 of the self-propulsion) each swim at the
+// speed of one alone, within 1e-4; a chain of four spheres with its
+// three arms in phase swims not at all (reciprocal: Purcell 1977).
+func TestStokesChainSwimmers(t *testing.T) {
+	const L, a, d = 1e-3, 1e-4, 1e-4
+	one := chainSpeed(t, chainCase(a, L, L, d, -90))
+	two := chainCase(a, L, L, d, -90)
+	far := 1000 * L
+	two.Container.Length = 4 * far
+	for k := range 3 {
+		s := two.Spheres[k]
+		s.Z += far
+		two.Spheres = append(two.Spheres, s)
+	}
+	for _, arm := range two.Arms[:2] {
+		arm.Spheres = [2]int{arm.Spheres[0] + 3, arm.Spheres[1] + 3}
+		two.Arms = append(two.Arms, arm)
+	}
+	st, err := StokesChain(two)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(st) != 2 {
+		t.Fatalf("%d swimmers, want 2", len(st))
+	}
+	for _, s := range st {
+		if math.Abs(s.Speed-one.Speed) > 1e-4*one.Speed {
+			t.Errorf("swimmer %d (spheres %v): %.6g m/s, alone %.6g", s.Swimmer, s.Spheres, s.Speed, one.Speed)
+		}
+	}
+	four := chainCase(a, L, L, d, 0)
+	four.Spheres = append(four.Spheres, cases.Sphere{Radius: a, Density: 1000, Z: 2 * L})
+	four.Arms = append(four.Arms, cases.Arm{Spheres: [2]int{3, 4}, Length: L, Amplitude: d, Frequency: 1})
+	st4 := chainSpeed(t, four)
+	if st4.LeadingOrder != nil || st4.Speed != 0 {
+		t.Errorf("four spheres in phase: %.3g m/s, leading order %v; want 0 and none", st4.Speed, st4.LeadingOrder)
+	}
+}
