@@ -456,7 +456,7 @@ func modelJoin(v []int) string {
 func modelNotes(c *cases.Case, f float64, res *ModelResult, offFrequency, static []string) []string {
 	notes := []string{
 		"each sphere is alone in unbounded liquid at rest in the container frame, with the unsteady Stokes force (Stokes 1851; Landau & Lifshitz §24 problem 5: drag, Basset force, added mass); the spheres are coupled only by their springs and arms",
-		"left out: the hydrodynamic interaction between the spheres, which matters when they are a few radii apart",
+		"left out of the amplitudes: the hydrodynamic interaction between the spheres, which matters when they are a few radii apart (the steady-Stokes swimming speeds, where given, include it)",
 	}
 	R := c.Container.Radius
 	worst, wk := 0.0, 0
