@@ -37,9 +37,10 @@ const (
 	// practice for "much below 1").
 	StokesMaxReynolds = 0.1
 	// StokesMaxUnsteady is the largest ω L²/ν (L the longest arm) at which
-	// it is: measured on the three-sphere swimmer at a/L = d/L = 0.1
-	// (verify three-sphere-stokes), ω L²/ν = 1 swims 0.8% slower than the
-	// quasi-steady limit and 4 swims 11% slower.
+	// it is: measured on the lattice for the three-sphere swimmer at
+	// a/L = d/L = 0.1 (the study in the comment of verify's
+	// threeSphereCase), ω L²/ν = 1 swims 0.8% slower than the quasi-steady
+	// limit (0.25) and 4 swims 11% slower.
 	StokesMaxUnsteady = 1.0
 )
 
@@ -58,7 +59,8 @@ const stokesStepsPerPeriod = 2000
 //
 // the axial component of the Rotne–Prager tensor for spheres of unequal
 // radii on a line (Rotne & Prager 1969, J. Chem. Phys. 50, 4831; the
-// Oseen tensor with its first finite-size correction, exact to O((a/r)³)),
+// Oseen tensor with its first finite-size correction, correct to
+// O((a/r)³)),
 // so for a swimmer of three spheres it reduces, to first order in a/L, to
 // the result of [ThreeSphereSpeed]. The arm constraints and the force-free
 // conditions give the forces at each instant; the positions are integrated
@@ -133,8 +135,8 @@ func StokesChain(c *cases.Case) ([]StokesSwimmer, error) {
 //
 // positive along the chain from the first arm to the second. This is the
 // three-sphere swimmer of Najafi & Golestanian (2004, Phys. Rev. E 69,
-// 062901) in the form of Golestanian & Ajdari (2008, Phys. Rev. E 77,
-// 036308). The coefficient is derived here, not copied: to zeroth order in
+// 062901: citation from memory) in the form of Golestanian & Ajdari
+// (2008, Phys. Rev. E 77, 036308). The coefficient is derived here, not copied: to zeroth order in
 // a/L the spheres move with u_i = F_i/(6πμa), so u1 = −(2L1' + L2')/3,
 // u2 = (L1' − L2')/3, u3 = (L1' + 2L2')/3; to first order the centroid
 // moves with (a/2) Σ_j u_j S_j, S_j = Σ_{i≠j} 1/r_ij (the Oseen

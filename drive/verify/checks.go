@@ -61,6 +61,7 @@ func Checks() []Check {
 		{Name: "demo-resolution", Full: true, Run: checkDemoResolution},
 		{Name: "demo-float32", Full: true, Run: checkDemoPrecision},
 		{Name: "three-sphere-container", Full: true, Run: checkThreeSphereContainer},
+		{Name: "three-sphere-resolution", Full: true, Run: checkThreeSphereResolution},
 	}
 }
 
