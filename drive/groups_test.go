@@ -3,9 +3,12 @@ package drive
 import (
 	"bytes"
 	"context"
+	"encoding/csv"
+	"math"
 	"os"
 	"path/filepath"
 	"reflect"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -79,6 +82,31 @@ func TestTrain(t *testing.T) {
 	lines := strings.Split(strings.TrimSpace(string(data)), "\n")
 	if !strings.HasSuffix(lines[0], "swimmer1_centroid_m,swimmer2_centroid_m,gap1_2_m") || len(lines) != 5 {
 		t.Errorf("periods.csv: %d lines, header %s", len(lines), lines[0])
+	}
+	// series.csv has each swimmer's centroid at every sample: the mean of
+	// the two is the centroid of the four equal-count spheres.
+	series, err := os.ReadFile(filepath.Join(whole, "series.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	rows, err := csv.NewReader(bytes.NewReader(series)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	col := map[string]int{}
+	for k, h := range rows[0] {
+		col[h] = k
+	}
+	c1, ok1 := col["swimmer1_centroid_m"]
+	c2, ok2 := col["swimmer2_centroid_m"]
+	if !ok1 || !ok2 || len(rows) < 3 {
+		t.Fatalf("series.csv: %d rows, header %v", len(rows), rows[0])
+	}
+	for _, r := range rows[1:] {
+		num := func(k int) float64 { v, _ := strconv.ParseFloat(r[k], 64); return v }
+		if d := math.Abs((num(c1)+num(c2))/2 - num(col["centroid_m"])); d > 1e-12 {
+			t.Fatalf("series.csv at t = %s: swimmer centroids %s, %s against the centroid %s", r[0], r[c1], r[c2], r[col["centroid_m"]])
+		}
 	}
 	if s, err := Run(ctx, c, l, Options{Out: part, Threads: 1, Quiet: true, StopAfter: int64(l.StepsPerPeriod*2 + 7)}); err != nil || !s.Interrupted {
 		t.Fatalf("interrupting: %v", err)

@@ -128,6 +128,12 @@ func seriesColumns(sim *Simulation) []output.Column {
 			cols = append(cols, output.Column{Name: fmt.Sprintf("spring%d_extension_m", k+1), Doc: "length minus rest length"})
 		}
 		cols = append(cols, output.Column{Name: "centroid_m", Doc: "mean of the sphere centres, container frame"})
+		if sw := sim.swimmers; len(sw) > 1 {
+			for g := range sw {
+				cols = append(cols, output.Column{Name: fmt.Sprintf("swimmer%d_centroid_m", g+1),
+					Doc: fmt.Sprintf("mean centre of swimmer %d (spheres %s), container frame", g+1, sphereList(sw[g]))})
+			}
+		}
 	}
 	return append(cols,
 		output.Column{Name: "max_speed_m_s", Doc: "largest liquid speed in the container frame"},
@@ -279,6 +285,11 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 				}
 			}
 			row = append(row, sim.Centroid())
+			if sw := sim.swimmers; len(sw) > 1 {
+				for _, g := range sw {
+					row = append(row, sim.swimmerCentroid(g))
+				}
+			}
 			hist.add(o.Time, o.DriveDisplacement, sim.Centroid(), ext)
 		}
 		row = append(row, o.MaxSpeed, o.Mach, o.MassDrift)
