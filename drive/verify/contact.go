@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"axiswim/cases"
+	"axiswim/drive"
 )
 
 // bounceCase is a glass-like sphere of our own (radius 0.5 mm, density
@@ -29,33 +30,60 @@ func bounceCase(mu, rangeCells, duration float64) *cases.Case {
 
 // bounce runs c and returns the impact speed (the largest downward speed
 // before the first rebound), the rebound speed (the largest upward speed
-// of that rebound) and the Stokes number St = rho_s U (2a) / (9 mu) of the impact.
+// of that rebound) and the Stokes number St = rho_s U (2a) / (9 mu) of the
+// impact (impactStokes with the sphere's own mass and radius).
 func bounce(c *cases.Case, o Options) (impact, rebound, st float64, err error) {
-	sim, err := setup(c, o)
+	impact, rebound, err = firstRebound(c, o, func(sim *drive.Simulation) float64 {
+		_, v, _ := sim.SphereState(0)
+		return v // the gap to the wall below changes at the sphere's speed
+	})
 	if err != nil {
 		return 0, 0, 0, err
+	}
+	s := c.Spheres[0]
+	return impact, rebound, impactStokes(c, sphereMass(s), s.Radius, impact), nil
+}
+
+// firstRebound runs c and follows the rate of change of a gap, rate: it
+// returns the largest closing speed before the gap first opens again and
+// the largest opening speed while it does, stopping there.
+func firstRebound(c *cases.Case, o Options, rate func(*drive.Simulation) float64) (impact, rebound float64, err error) {
+	sim, err := setup(c, o)
+	if err != nil {
+		return 0, 0, err
 	}
 	defer sim.Close()
 	steps := int(math.Ceil(c.Run.Duration / sim.Lattice.Dt))
 	up := false
 	for n := 0; n < steps; n++ {
 		if err := sim.Advance(1); err != nil {
-			return 0, 0, 0, fmt.Errorf("step %d: %w", n, err)
+			return 0, 0, fmt.Errorf("step %d: %w", n, err)
 		}
-		_, v, _ := sim.SphereState(0)
+		w := rate(sim)
 		switch {
-		case !up && v > 0:
+		case !up && w > 0 && impact > 0:
 			up = true
 		case !up:
-			impact = math.Max(impact, -v)
-		case v <= 0: // the first rebound is over
-			n = steps
+			impact = math.Max(impact, -w)
+		case w <= 0: // the first rebound is over
+			return impact, rebound, nil
 		default:
-			rebound = math.Max(rebound, v)
+			rebound = math.Max(rebound, w)
 		}
 	}
-	s := c.Spheres[0]
-	return impact, rebound, s.Density * impact * 2 * s.Radius / (9 * c.Fluid.Viscosity), nil
+	return impact, rebound, nil
+}
+
+// impactStokes is the Stokes number m U / (6 pi mu a^2) of an impact at
+// speed U with mass m and radius a (for two spheres their reduced mass and
+// radius): rho_s U (2a) / (9 mu) for one sphere on a wall.
+func impactStokes(c *cases.Case, m, a, u float64) float64 {
+	return m * u / (6 * math.Pi * c.Fluid.Viscosity * a * a)
+}
+
+// sphereMass is the mass of sphere s, kg.
+func sphereMass(s cases.Sphere) float64 {
+	return s.Density * 4 * math.Pi / 3 * s.Radius * s.Radius * s.Radius
 }
 
 // pairCase is a sphere of radius 0.5 mm falling onto one of 0.35 mm
@@ -81,41 +109,21 @@ func pairCase(rangeCells, duration float64) *cases.Case {
 // pairBounce runs c and returns the largest approach speed of the upper
 // sphere on the lower before they first separate, the largest separation
 // speed while they do (the repulsion then holds them about 3.6 cells
-// apart as they fall together), and the Stokes number of the impact on the reduced mass
-// and radius, St = m_r U / (6 pi mu a_r^2), m_r = m1 m2/(m1 + m2),
-// a_r = a1 a2/(a1 + a2) (the wall's St when one sphere is infinitely
-// large).
+// apart as they fall together), and the Stokes number of the impact on
+// the reduced mass and radius, m_r = m1 m2/(m1 + m2), a_r = a1 a2/(a1 + a2)
+// (the wall's St when one sphere is infinitely large).
 func pairBounce(c *cases.Case, o Options) (impact, rebound, st float64, err error) {
-	sim, err := setup(c, o)
+	impact, rebound, err = firstRebound(c, o, func(sim *drive.Simulation) float64 {
+		_, v0, _ := sim.SphereState(0)
+		_, v1, _ := sim.SphereState(1)
+		return v1 - v0 // sphere 2 is above sphere 1
+	})
 	if err != nil {
 		return 0, 0, 0, err
 	}
-	defer sim.Close()
-	steps := int(math.Ceil(c.Run.Duration / sim.Lattice.Dt))
-	up := false
-	for n := 0; n < steps; n++ {
-		if err := sim.Advance(1); err != nil {
-			return 0, 0, 0, fmt.Errorf("step %d: %w", n, err)
-		}
-		_, v0, _ := sim.SphereState(0)
-		_, v1, _ := sim.SphereState(1)
-		w := v1 - v0 // rate of change of the gap
-		switch {
-		case !up && w > 0 && impact > 0:
-			up = true
-		case !up:
-			impact = math.Max(impact, -w)
-		case w <= 0: // the first separation is over
-			n = steps
-		default:
-			rebound = math.Max(rebound, w)
-		}
-	}
 	s1, s2 := c.Spheres[0], c.Spheres[1]
-	m1 := s1.Density * 4 * math.Pi / 3 * s1.Radius * s1.Radius * s1.Radius
-	m2 := s2.Density * 4 * math.Pi / 3 * s2.Radius * s2.Radius * s2.Radius
-	mr, ar := m1*m2/(m1+m2), s1.Radius*s2.Radius/(s1.Radius+s2.Radius)
-	return impact, rebound, mr * impact / (6 * math.Pi * c.Fluid.Viscosity * ar * ar), nil
+	m1, m2 := sphereMass(s1), sphereMass(s2)
+	return impact, rebound, impactStokes(c, m1*m2/(m1+m2), s1.Radius*s2.Radius/(s1.Radius+s2.Radius), impact), nil
 }
 
 // checkContact measures the effective restitution of a contact in the
