@@ -16,11 +16,19 @@ import (
 // range (cells).
 func bounceCase(mu, rangeCells, duration float64) *cases.Case {
 	const a = 0.5e-3
+	return settleCase(mu, 16e-3, rangeCells, duration, cases.Sphere{Radius: a, Density: 2500, Z: -8e-3 + a + 4.5e-3})
+}
+
+// settleCase is spheres settling under gravity in a closed container of
+// radius 4 mm and the given length, in a liquid of density 1000 and
+// viscosity mu, at 8 cells per radius of the smallest, with the repulsion
+// of the given range (cells), for duration seconds.
+func settleCase(mu, length, rangeCells, duration float64, spheres ...cases.Sphere) *cases.Case {
 	c := cases.Default()
 	c.Fluid = cases.Fluid{Density: 1000, Viscosity: mu}
-	c.Container = cases.Container{Radius: 4e-3, Length: 16e-3, Ends: cases.EndsClosed}
+	c.Container = cases.Container{Radius: 4e-3, Length: length, Ends: cases.EndsClosed}
 	c.Shaking = cases.Shaking{Gravity: 9.81}
-	c.Spheres = []cases.Sphere{{Radius: a, Density: 2500, Z: -8e-3 + a + 4.5e-3}}
+	c.Spheres = spheres
 	c.Bodies.RepulsionRange = rangeCells
 	c.Grid.CellsPerRadius = 8
 	c.Run.Duration = duration
@@ -94,16 +102,8 @@ func sphereMass(s cases.Sphere) float64 {
 // given range, as the spheres of two swimmers do.
 func pairCase(rangeCells, duration float64) *cases.Case {
 	const a1, a2 = 0.35e-3, 0.5e-3
-	c := cases.Default()
-	c.Fluid = cases.Fluid{Density: 1000, Viscosity: 0.0049}
-	c.Container = cases.Container{Radius: 4e-3, Length: 40e-3, Ends: cases.EndsClosed}
-	c.Shaking = cases.Shaking{Gravity: 9.81}
-	c.Spheres = []cases.Sphere{{Radius: a1, Density: 2500, Z: 10e-3}, {Radius: a2, Density: 2500, Z: 10e-3 + a1 + a2 + 2e-3}}
-	c.Bodies.RepulsionRange = rangeCells
-	c.Grid.CellsPerRadius = 8
-	c.Run.Duration = duration
-	c.FillDefaults()
-	return c
+	return settleCase(0.0049, 40e-3, rangeCells, duration,
+		cases.Sphere{Radius: a1, Density: 2500, Z: 10e-3}, cases.Sphere{Radius: a2, Density: 2500, Z: 10e-3 + a1 + a2 + 2e-3})
 }
 
 // pairBounce runs c and returns the largest approach speed of the upper
