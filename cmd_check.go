@@ -67,7 +67,7 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 	fmt.Fprintln(stdout)
 
 	gs := c.Groups(l)
-	shaken := c.Shaking.Frequency > 0 && c.Shaking.Amplitude != 0
+	shaken := c.Shaken()
 	if len(gs) > 0 && !shaken {
 		fmt.Fprintln(stdout, "\nthe container is not shaken: the groups of the shaking (A/a, M^2, Re, Re_s) do not apply")
 	}

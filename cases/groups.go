@@ -98,3 +98,10 @@ func (c *Case) ArmGroups(l *Lattice) []ArmGroups {
 	}
 	return gs
 }
+
+// Shaken reports whether the container of c is shaken (a frequency and a
+// nonzero amplitude): only then do the groups of Groups describe the case.
+// In a run's summary it shows as a positive streaming Reynolds number.
+func (c *Case) Shaken() bool {
+	return c.Shaking.Frequency > 0 && c.Shaking.Amplitude != 0
+}

@@ -77,7 +77,7 @@ func StokesChain(c *cases.Case) ([]StokesSwimmer, error) {
 	if len(c.Arms) == 0 {
 		return nil, errors.New("no arm strokes")
 	}
-	if c.Shaking.Frequency > 0 && c.Shaking.Amplitude != 0 {
+	if c.Shaken() {
 		return nil, errors.New("the container is shaken: the swimmer swims by the liquid's inertia, outside steady Stokes flow")
 	}
 	if len(c.Springs) > 0 {

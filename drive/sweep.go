@@ -298,7 +298,7 @@ func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error
 		conv, lead, warm := "", "", ""
 		model, inRange := sweepModelSpeed(r.Summary)
 		if sum := r.Summary; sum != nil {
-			if len(sum.Groups) > 0 && sum.Groups[0].Delta > 0 { // the groups of the shaking; empty without
+			if len(sum.Groups) > 0 && sum.Groups[0].ReS > 0 { // shaken (cases.Case.Shaken): the groups apply
 				g := sum.Groups[0]
 				eps, m2, re, res = g.Epsilon, g.M2, g.Re, g.ReS
 			}
