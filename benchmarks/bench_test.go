@@ -9,6 +9,8 @@ import (
 	"sync"
 	"testing"
 	"time"
+
+	"axiswim/lbm"
 )
 
 // The benchmark grids: 256x128, 960x240 and 4096x1024 by default; -grids
@@ -96,11 +98,11 @@ func TestHelpers(t *testing.T) {
 			}
 		}
 	}
-	for _, k := range append(kernels, portableKernels...) {
+	for _, k := range pathKernels(lbm.Kernels()) {
 		for _, n := range []int{1, 2} {
 			res, err := measureKernel(k, grid{16, 8}, n, 10*time.Millisecond)
 			if err != nil {
-				t.Fatalf("%s threads=%d: %v", k.name, n, err)
+				t.Fatalf("%s on %s threads=%d: %v", k.name, k.path, n, err)
 			}
 			if !positiveFinite(res.mlups) || res.steps < 3 || res.threads != n {
 				t.Errorf("%s threads=%d: %+v", k.name, n, res)

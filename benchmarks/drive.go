@@ -3,11 +3,13 @@ package main
 import (
 	"fmt"
 	"io"
+	"os"
 	"runtime"
 	"time"
 
 	"axiswim/cases"
 	"axiswim/drive"
+	"axiswim/lbm"
 )
 
 // driveCells are the resolutions of the demo whose drive step is timed:
@@ -38,12 +40,25 @@ func demoCase(cells int) (*cases.Case, error) {
 }
 
 // newDemo sets up the demo at cells per radius with the given number of
-// goroutines and takes the warm-up steps. It returns the time the set-up
-// took (without the warm-up).
-func newDemo(cells, threads int) (*drive.Simulation, time.Duration, error) {
+// goroutines on kernel path p and takes the warm-up steps. It returns the
+// time the set-up took (without the warm-up).
+//
+// drive takes the kernel path from AXISWIM_KERNEL, as a user chooses it, so
+// the path is set there for the set-up and restored after it (the solver
+// keeps the path it was made with).
+func newDemo(cells, threads int, p lbm.KernelPath) (*drive.Simulation, time.Duration, error) {
 	c, err := demoCase(cells)
 	if err != nil {
 		return nil, 0, err
+	}
+	if p != lbm.KernelAuto {
+		old, had := os.LookupEnv(lbm.KernelEnv)
+		os.Setenv(lbm.KernelEnv, string(p))
+		if had {
+			defer os.Setenv(lbm.KernelEnv, old)
+		} else {
+			defer os.Unsetenv(lbm.KernelEnv)
+		}
 	}
 	t0 := time.Now()
 	sim, err := drive.Setup(c, threads)
@@ -61,6 +76,7 @@ func newDemo(cells, threads int) (*drive.Simulation, time.Duration, error) {
 // driveResult is the timing of a stretch of drive steps.
 type driveResult struct {
 	cells, nz, nr  int
+	path           lbm.KernelPath
 	stepsPerPeriod int
 	threads        int
 	setup          time.Duration // drive.Setup
@@ -97,16 +113,16 @@ const driveBatches = 3
 // Advance in driveBatches batches of about dur/driveBatches each (the
 // estimate of a step's time comes from the warm-up), keeping the fastest;
 // its time per step is extrapolated to a period.
-func measureDrive(cells, threads int, dur time.Duration) (driveResult, error) {
+func measureDrive(cells, threads int, p lbm.KernelPath, dur time.Duration) (driveResult, error) {
 	t0 := time.Now()
-	sim, setup, err := newDemo(cells, threads)
+	sim, setup, err := newDemo(cells, threads, p)
 	if err != nil {
 		return driveResult{}, err
 	}
 	defer sim.Close()
 	perStep := (time.Since(t0) - setup) / driveWarmUp
 	l := sim.Lattice
-	r := driveResult{cells: cells, nz: l.Nz, nr: l.Nr, stepsPerPeriod: l.StepsPerPeriod,
+	r := driveResult{cells: cells, path: sim.Fluid.Kernel(), nz: l.Nz, nr: l.Nr, stepsPerPeriod: l.StepsPerPeriod,
 		threads: sim.Fluid.Threads(), setup: setup, batches: driveBatches}
 	r.steps = max(1, int(dur/driveBatches/max(perStep, 1)))
 	var before, after runtime.MemStats
@@ -129,26 +145,39 @@ func measureDrive(cells, threads int, dur time.Duration) (driveResult, error) {
 }
 
 // driveTable times the drive step of the demo at 12 and 24 cells per
-// radius with each goroutine count for about dur each, and prints a
-// markdown table: wall time per drive period, the share of a step spent
+// radius with each kernel path and goroutine count for about dur each, and
+// prints a markdown table: wall time per drive period, the speed-up over
+// the portable path when that was timed too, the share of a step spent
 // outside the fluid kernel and the allocations per step.
-func driveTable(w io.Writer, threads []int, dur time.Duration) error {
+func driveTable(w io.Writer, threads []int, paths []lbm.KernelPath, dur time.Duration) error {
 	var rows []driveResult
 	for _, cells := range driveCells {
 		for _, n := range threads {
-			r, err := measureDrive(cells, n, dur)
-			if err != nil {
-				return fmt.Errorf("drive step, %d cells per radius, threads=%d: %w", cells, n, err)
+			for _, p := range paths {
+				r, err := measureDrive(cells, n, p, dur)
+				if err != nil {
+					return fmt.Errorf("drive step, %d cells per radius, threads=%d, kernel %s: %w", cells, n, p, err)
+				}
+				rows = append(rows, r)
 			}
-			rows = append(rows, r)
 		}
 	}
-	fmt.Fprintln(w, "| case | cells per radius | grid | steps per period | goroutines | timed | wall time per period | outside kernel | allocs per step |")
-	fmt.Fprintln(w, "|---|---:|---|---:|---:|---:|---:|---:|---:|")
+	portable := map[[2]int]time.Duration{} // cells, goroutines -> the portable path's time per period
 	for _, r := range rows {
-		fmt.Fprintf(w, "| demo | %d | %dx%d | %d | %d | %s | %.2f s | %.1f%% | %.3g |\n",
-			r.cells, r.nz, r.nr, r.stepsPerPeriod, r.threads, r.timed(),
-			r.perPeriod().Seconds(), 100*r.outside(), r.allocsPerStep())
+		if r.path == lbm.KernelPortable {
+			portable[[2]int{r.cells, r.threads}] = r.perPeriod()
+		}
+	}
+	fmt.Fprintln(w, "| case | cells per radius | grid | steps per period | path | goroutines | timed | wall time per period | faster than portable | outside kernel | allocs per step |")
+	fmt.Fprintln(w, "|---|---:|---|---:|---|---:|---:|---:|---:|---:|---:|")
+	for _, r := range rows {
+		speedup := "-"
+		if p, ok := portable[[2]int{r.cells, r.threads}]; ok && r.path != lbm.KernelPortable {
+			speedup = fmt.Sprintf("%.2fx", p.Seconds()/r.perPeriod().Seconds())
+		}
+		fmt.Fprintf(w, "| demo | %d | %dx%d | %d | %s | %d | %s | %.2f s | %s | %.1f%% | %.3g |\n",
+			r.cells, r.nz, r.nr, r.stepsPerPeriod, r.path, r.threads, r.timed(),
+			r.perPeriod().Seconds(), speedup, 100*r.outside(), r.allocsPerStep())
 	}
 	fmt.Fprintln(w)
 	fmt.Fprintf(w, "Drive step: drive.Simulation.Advance on the embedded demo (grid.cells_per_radius as given), after %d warm-up steps;\n", driveWarmUp)

@@ -5,6 +5,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"axiswim/lbm"
 )
 
 // BenchmarkDemoStep times one drive step (drive.Simulation.Advance(1)) of
@@ -18,7 +20,7 @@ func BenchmarkDemoStep(b *testing.B) {
 		b.Run(fmt.Sprintf("cells=%d", cells), func(b *testing.B) {
 			for _, n := range threadCounts() {
 				b.Run(fmt.Sprintf("threads=%d", n), func(b *testing.B) {
-					sim, _, err := newDemo(cells, n) // set-up and warm-up are not timed
+					sim, _, err := newDemo(cells, n, lbm.KernelAuto) // set-up and warm-up are not timed
 					if err != nil {
 						b.Fatal(err)
 					}
@@ -47,7 +49,7 @@ func TestDriveTable(t *testing.T) {
 	if testing.Short() {
 		t.Skip("sets up the demo at 24 cells per radius")
 	}
-	r, err := measureDrive(12, 1, 20*time.Millisecond)
+	r, err := measureDrive(12, 1, lbm.KernelAuto, 20*time.Millisecond)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -55,7 +57,7 @@ func TestDriveTable(t *testing.T) {
 		t.Errorf("demo at 12 cells: %+v, %v per period, outside %v", r, r.perPeriod(), r.outside())
 	}
 	var sb strings.Builder
-	if err := driveTable(&sb, []int{1}, 10*time.Millisecond); err != nil {
+	if err := driveTable(&sb, []int{1}, []lbm.KernelPath{lbm.KernelAuto}, 10*time.Millisecond); err != nil {
 		t.Fatal(err)
 	}
 	if got := strings.Count(sb.String(), "| demo |"); got != len(driveCells) {

@@ -2,6 +2,8 @@ package main
 
 import (
 	"fmt"
+	"os"
+	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -14,8 +16,14 @@ type kernel struct {
 	name      string
 	collision lbm.Collision
 	axisym    bool
-	portable  bool // the portable Go kernel even where SIMD is available
-	single    bool // float32 storage of the populations
+	single    bool           // float32 storage of the populations
+	path      lbm.KernelPath // the kernel path (KernelAuto: AXISWIM_KERNEL or the fastest)
+}
+
+// on returns k on kernel path p.
+func (k kernel) on(p lbm.KernelPath) kernel {
+	k.path = p
+	return k
 }
 
 // bytes is the DRAM traffic of one node update of k (see bytesPerUpdate).
@@ -34,18 +42,35 @@ func (k kernel) latticeBytes(g grid) int {
 	return g.latticeBytes()
 }
 
-// kernels are the configurations measured, in table order.
+// kernels are the configurations measured, in table order, each on every
+// kernel path asked for.
 var kernels = []kernel{
 	{name: "planar BGK", collision: lbm.BGK, axisym: false},
 	{name: "axisymmetric TRT", collision: lbm.TRT, axisym: true},
 	{name: "axisymmetric TRT, float32", collision: lbm.TRT, axisym: true, single: true},
 }
 
-// portableKernels are the same configurations on the portable Go kernel
-// (the -portable flag adds them to the table).
-var portableKernels = []kernel{
-	{name: "planar BGK, portable", collision: lbm.BGK, axisym: false, portable: true},
-	{name: "axisymmetric TRT, portable", collision: lbm.TRT, axisym: true, portable: true},
+// parsePaths reads the -kernels flag: a comma-separated list of kernel
+// paths (portable, avx2, avx512), "all" for every path this machine runs,
+// or "" for the one lbm chooses (AXISWIM_KERNEL, else the fastest). Each
+// path is checked against the processor; the list is returned resolved,
+// without repeats.
+func parsePaths(s string) ([]lbm.KernelPath, error) {
+	s = strings.TrimSpace(s)
+	if s == "all" {
+		return lbm.Kernels(), nil
+	}
+	var ps []lbm.KernelPath
+	for _, f := range strings.Split(s, ",") {
+		p, err := lbm.ResolveKernel(lbm.KernelPath(strings.TrimSpace(f)))
+		if err != nil {
+			return nil, err
+		}
+		if !slices.Contains(ps, p) {
+			ps = append(ps, p)
+		}
+	}
+	return ps, nil
 }
 
 const (
@@ -120,7 +145,7 @@ func newSolver(k kernel, g grid, threads int) (*lbm.Solver, error) {
 		Axisymmetric: k.axisym,
 		PeriodicZ:    true,
 		Threads:      threads,
-		Portable:     k.portable,
+		Kernel:       k.path,
 		Single:       k.single,
 	})
 	if err != nil {
@@ -178,15 +203,21 @@ func measureKernel(k kernel, g grid, threads int, dur time.Duration) (kernelResu
 	return res, nil
 }
 
-// kernelName names the kernel lbm chooses on this machine.
-func kernelName() string {
-	s, err := lbm.New(lbm.Config{Nz: 8, Nr: 8, Tau: benchTau, Threads: 1})
+// kernelHeader describes the kernel paths of the run: the one lbm
+// chooses by default here, how it was chosen, and every one the machine
+// runs.
+func kernelHeader() string {
+	how := "the fastest this processor has"
+	if v := os.Getenv(lbm.KernelEnv); strings.TrimSpace(v) != "" {
+		how = lbm.KernelEnv + "=" + v
+	}
+	def, err := lbm.ResolveKernel(lbm.KernelAuto)
 	if err != nil {
-		return "unknown"
+		return err.Error()
 	}
-	defer s.Close()
-	if s.Kernel() == "avx512" {
-		return "avx512 (SIMD, amd64 assembly)"
+	var all []string
+	for _, p := range lbm.Kernels() {
+		all = append(all, string(p))
 	}
-	return "portable (Go)"
+	return fmt.Sprintf("%s (%s); paths this machine runs: %s", def.Describe(), how, strings.Join(all, ", "))
 }

@@ -8,13 +8,20 @@ import (
 	"os"
 	"runtime"
 	"runtime/debug"
+	"slices"
+	"strconv"
+	"strings"
 	"time"
+
+	"axiswim/lbm"
 )
 
 func main() {
 	fs := flag.NewFlagSet("benchmarks", flag.ExitOnError)
 	gridsFlag := fs.String("grids", "256x128,960x240,4096x1024", `comma-separated grids NZxNR, or "all"`)
-	portable := fs.Bool("portable", false, "also time the portable Go kernel")
+	paths := fs.String("kernels", "", `kernel paths to time, comma-separated (portable, avx2, avx512), or "all" the machine runs (default: the one in use, AXISWIM_KERNEL or the fastest)`)
+	portable := fs.Bool("portable", false, "also time the portable Go kernel (same as adding portable to -kernels)")
+	threadsFlag := fs.String("threads", "", "goroutine counts, comma-separated (default 1 and all cores)")
 	seconds := fs.Float64("seconds", 2, "seconds of timing per kernel, grid and goroutine count")
 	reps := fs.Int("reps", 10, "triad repetitions (the best is reported)")
 	triadMiB := fs.Int("triad-mib", defaultTriadMiB, "size of each of the three triad arrays, MiB")
@@ -30,6 +37,19 @@ func main() {
 		fmt.Fprintln(os.Stderr, "benchmarks:", err)
 		os.Exit(2)
 	}
+	ps, err := parsePaths(*paths)
+	if err == nil && *portable && !slices.Contains(ps, lbm.KernelPortable) {
+		ps = append(ps, lbm.KernelPortable)
+	}
+	if err != nil {
+		fmt.Fprintln(os.Stderr, "benchmarks: -kernels:", err)
+		os.Exit(2)
+	}
+	threads, err := parseThreads(*threadsFlag)
+	if err != nil {
+		fmt.Fprintln(os.Stderr, "benchmarks: -threads:", err)
+		os.Exit(2)
+	}
 	if *seconds <= 0 || *reps < 1 || *triadMiB < 1 {
 		fmt.Fprintln(os.Stderr, "benchmarks: -seconds, -reps and -triad-mib must be positive")
 		os.Exit(2)
@@ -39,10 +59,8 @@ func main() {
 		dur:      time.Duration(*seconds * float64(time.Second)),
 		reps:     *reps,
 		triadLen: *triadMiB << 20 / 8,
-		kernels:  kernels,
-	}
-	if *portable {
-		cfg.kernels = append(cfg.kernels, portableKernels...)
+		paths:    ps,
+		threads:  threads,
 	}
 	if err := run(os.Stdout, cfg); err != nil {
 		fmt.Fprintln(os.Stderr, "benchmarks:", err)
@@ -52,16 +70,17 @@ func main() {
 
 type runConfig struct {
 	grids    []grid
-	dur      time.Duration // timing per kernel measurement
-	reps     int           // triad repetitions
-	triadLen int           // elements per triad array
-	kernels  []kernel      // configurations to time
+	dur      time.Duration    // timing per kernel measurement
+	reps     int              // triad repetitions
+	triadLen int              // elements per triad array
+	paths    []lbm.KernelPath // kernel paths to time, each with every configuration
+	threads  []int            // goroutine counts
 }
 
 // run measures the triad and every kernel, grid and goroutine count, and
 // prints the machine facts and the table to w.
 func run(w io.Writer, cfg runConfig) error {
-	threads := threadCounts()
+	threads := cfg.threads
 	llc := lastLevelCache()
 	start := time.Now()
 
@@ -75,8 +94,9 @@ func run(w io.Writer, cfg runConfig) error {
 		fmt.Fprintf(w, "LLC:    unknown\n")
 	}
 	fmt.Fprintf(w, "Triad:  3 x %s arrays, best of %d passes\n", mib(cfg.triadLen*8), cfg.reps)
-	fmt.Fprintf(w, "Kernel: %s; tau %g, periodic ends, force %g; %d warm-up steps, best batch over %v\n",
-		kernelName(), benchTau, benchForce, warmUpSteps, cfg.dur)
+	fmt.Fprintf(w, "Kernel: %s\n", kernelHeader())
+	fmt.Fprintf(w, "Timed:  paths %s; tau %g, periodic ends, force %g; %d warm-up steps, best batch over %v\n",
+		joinPaths(cfg.paths), benchTau, benchForce, warmUpSteps, cfg.dur)
 	if llc > 0 && cfg.triadLen*8 < 4*llc {
 		fmt.Fprintf(w, "WARNING: each triad array is smaller than 4 x LLC; the triad may measure cache, not DRAM\n")
 	}
@@ -101,7 +121,7 @@ func run(w io.Writer, cfg runConfig) error {
 	}
 	var rows []row
 	for _, g := range cfg.grids {
-		for _, k := range cfg.kernels {
+		for _, k := range pathKernels(cfg.paths) {
 			var m1 float64
 			for _, n := range threads {
 				res, err := measureKernel(k, g, n, cfg.dur)
@@ -116,8 +136,8 @@ func run(w io.Writer, cfg runConfig) error {
 		}
 	}
 
-	fmt.Fprintln(w, "| grid | lattices | kernel | goroutines | MLUPS | triad GB/s | DRAM limit MLUPS | of limit | scaling |")
-	fmt.Fprintln(w, "|---|---:|---|---:|---:|---:|---:|---:|---:|")
+	fmt.Fprintln(w, "| grid | lattices | kernel | path | goroutines | MLUPS | triad GB/s | DRAM limit MLUPS | of limit | scaling |")
+	fmt.Fprintln(w, "|---|---:|---|---|---:|---:|---:|---:|---:|---:|")
 	for _, r := range rows {
 		fits := ""
 		if llc > 0 && r.k.latticeBytes(r.g) <= llc {
@@ -129,8 +149,8 @@ func run(w io.Writer, cfg runConfig) error {
 		if r.n > 1 && r.mlup1 > 0 {
 			scaling = fmt.Sprintf("%.0f%%", 100*r.res.mlups/(float64(r.res.threads)*r.mlup1))
 		}
-		fmt.Fprintf(w, "| %s | %s%s | %s | %d | %.1f | %.1f | %.1f | %.0f%% | %s |\n",
-			r.g, mib(r.k.latticeBytes(r.g)), fits, r.k.name, r.res.threads, r.res.mlups,
+		fmt.Fprintf(w, "| %s | %s%s | %s | %s | %d | %.1f | %.1f | %.1f | %.0f%% | %s |\n",
+			r.g, mib(r.k.latticeBytes(r.g)), fits, r.k.name, r.k.path, r.res.threads, r.res.mlups,
 			b/1e9, limit, 100*r.res.mlups/limit, scaling)
 	}
 	fmt.Fprintln(w)
@@ -141,11 +161,48 @@ func run(w io.Writer, cfg runConfig) error {
 	fmt.Fprintf(w, "lattices: size of the two population lattices; * = fits in the last-level cache,\n")
 	fmt.Fprintf(w, "so that grid can run above the DRAM limit.\n")
 	fmt.Fprintln(w)
-	if err := driveTable(w, threads, cfg.dur); err != nil {
+	if err := driveTable(w, threads, cfg.paths, cfg.dur); err != nil {
 		return err
 	}
 	fmt.Fprintf(w, "Total time %.1f s.\n", time.Since(start).Seconds())
 	return nil
+}
+
+// pathKernels is every configuration of kernels on every path, grouped by
+// configuration.
+func pathKernels(paths []lbm.KernelPath) []kernel {
+	var ks []kernel
+	for _, k := range kernels {
+		for _, p := range paths {
+			ks = append(ks, k.on(p))
+		}
+	}
+	return ks
+}
+
+func joinPaths(ps []lbm.KernelPath) string {
+	s := make([]string, len(ps))
+	for i, p := range ps {
+		s[i] = string(p)
+	}
+	return strings.Join(s, ", ")
+}
+
+// parseThreads reads a comma-separated list of goroutine counts; ""
+// gives 1 and all cores (threadCounts).
+func parseThreads(s string) ([]int, error) {
+	if strings.TrimSpace(s) == "" {
+		return threadCounts(), nil
+	}
+	var ns []int
+	for _, f := range strings.Split(s, ",") {
+		n, err := strconv.Atoi(strings.TrimSpace(f))
+		if err != nil || n < 1 {
+			return nil, fmt.Errorf("%q: want positive goroutine counts such as 1,2,4", f)
+		}
+		ns = append(ns, n)
+	}
+	return ns, nil
 }
 
 // mib formats a byte count in MiB.

@@ -32,10 +32,13 @@ type Config struct {
 	// Threads is the number of goroutines (0: GOMAXPROCS).
 	Threads int
 
-	// Portable selects the portable Go kernel even where the SIMD kernel
-	// (AVX-512, amd64) is available. Both give the same bits; the SIMD one
-	// is faster. Tests use it to compare the two.
-	Portable bool
+	// Kernel chooses the path of the block loops: KernelPortable (Go),
+	// KernelAVX2 or KernelAVX512 (amd64 assembly). All give the same bits;
+	// the SIMD ones are faster. KernelAuto (the zero value) takes the path
+	// named by the environment variable AXISWIM_KERNEL, else the fastest
+	// the processor has. New fails on a path the processor or build cannot
+	// run.
+	Kernel KernelPath
 
 	// Single stores the populations (their deviations f_i - w_i from the
 	// weights) in float32 instead of float64; every operation is still done

@@ -57,6 +57,26 @@ type block struct {
 	// tail is the lane mask of the SIMD loops' last vector when the block
 	// does not fill it: bit x for the block's node nb&^7 + x.
 	tail uint16
+
+	// For the AVX2 loops (simd_avx2_amd64.s), which have no broadcast
+	// operands: k, axis and diag with each value repeated in four lanes,
+	// read as 256-bit memory operands (spread).
+	k4           [unsafe.Sizeof(consts{}) / 8][4]float64
+	axis4, diag4 [unsafe.Sizeof(pairRates{}) / 8][4]float64
+}
+
+// spread copies k, axis and diag into k4, axis4 and diag4, four lanes each.
+func (t *block) spread() {
+	k := (*[len(t.k4)]float64)(unsafe.Pointer(&t.k))
+	for i, v := range k {
+		t.k4[i] = [4]float64{v, v, v, v}
+	}
+	a := (*[len(t.axis4)]float64)(unsafe.Pointer(&t.axis))
+	d := (*[len(t.diag4)]float64)(unsafe.Pointer(&t.diag))
+	for i := range a {
+		t.axis4[i] = [4]float64{a[i], a[i], a[i], a[i]}
+		t.diag4[i] = [4]float64{d[i], d[i], d[i], d[i]}
+	}
 }
 
 // newBlock returns a block whose arrays start on a 64-byte boundary, so
@@ -120,6 +140,9 @@ func (s *Solver) sweepBlocks(n0, n1 int, rc *rowConst, obs *Fields, o0 int, t *b
 	const w1, w5 = 1.0 / 9, 1.0 / 36 // W[1], W[5]; w*3 is then folded exactly as in collideTRT
 	t.axis = pairRates{nhp: -0.5 * wp, nhm: -0.5 * wm, w2: 2 * w1, w6: 2 * (w1 * 3), cpw: cp * w1, cmw: cm * w1 * 3, c9: 9}
 	t.diag = pairRates{nhp: -0.5 * wp, nhm: -0.5 * wm, w2: 2 * w5, w6: 2 * (w5 * 3), cpw: cp * w5, cmw: cm * w5 * 3, c9: 9}
+	if s.path == KernelAVX2 {
+		t.spread()
+	}
 	axi := R != 0 && s.nIter > 0
 	if s.single {
 		sweepRun(s, &s.a32, &s.b32, n0, n1, axi, obs, o0, t)
@@ -135,41 +158,54 @@ type real interface{ ~float32 | ~float64 }
 // sweepRun is the loop over the blocks of sweepBlocks, from lattice a into
 // lattice b.
 func sweepRun[T real](s *Solver, a, b *[Q][]T, n0, n1 int, axi bool, obs *Fields, o0 int, t *block) {
+	simd := s.path != KernelPortable
 	var src, dst [Q]uintptr // the run's first populations, for the SIMD loops
-	if s.simd && n1 > n0 {
+	if simd && n1 > n0 {
 		pointers(a, b, &s.off, n0, n1-n0, t) // checks the bounds of the whole run
 		src, dst = t.src, t.dst
 	}
 	size := unsafe.Sizeof(T(0))
+	f32 := s.single
 	for k0 := n0; k0 < n1; k0 += blk {
 		k1 := min(k0+blk, n1)
 		nb := k1 - k0
 		nv := 0 // nodes [0, nv) of the block go through the SIMD loops, the rest through Go
-		if s.simd {
+		if simd {
 			shift := uintptr(k0-n0) * size
 			for q := range Q {
 				t.src[q], t.dst[q] = src[q]+shift, dst[q]+shift
 			}
+		}
+		switch s.path {
+		case KernelAVX512:
 			nv = nb // the last vector is masked
 			t.tail = uint16(1)<<(nb%simdWidth) - 1
+		case KernelAVX2:
+			nv = nb &^ (avx2Width - 1) // the Go loops do the last nb%4 nodes
 		}
 		whole := !axi && obs == nil && s.mrt == nil // planarSIMD does all of it
+		passes := 0
+		if axi {
+			passes = s.nIter
+		}
 		switch {
 		case nv == 0:
-		case whole && s.single:
+		case s.path == KernelAVX2 && whole && f32:
+			planarAVX2_32(t, nv)
+		case s.path == KernelAVX2 && whole:
+			planarAVX2(t, nv)
+		case s.path == KernelAVX2 && f32:
+			gatherAVX2_32(t, nv, passes)
+		case s.path == KernelAVX2:
+			gatherAVX2(t, nv, passes)
+		case whole && f32:
 			planarSIMD32(t, nv)
 		case whole:
 			planarSIMD(t, nv)
+		case f32:
+			gatherSIMD32(t, nv, passes)
 		default:
-			passes := 0
-			if axi {
-				passes = s.nIter
-			}
-			if s.single {
-				gatherSIMD32(t, nv, passes)
-			} else {
-				gatherSIMD(t, nv, passes)
-			}
+			gatherSIMD(t, nv, passes)
 		}
 		if nv < nb { // the Go loops, for what SIMD did not do
 			gather(a, &s.off, k0, k1, nv, axi, t)
@@ -191,12 +227,16 @@ func sweepRun[T real](s *Solver, a, b *[Q][]T, n0, n1 int, axi bool, obs *Fields
 			t.velocities(nb)
 			collideBlockMRT(a, b, &s.off, s.mrt, k0, k1, t)
 		default:
-			if nv > 0 && !whole {
-				if s.single {
-					collideSIMD32(t, nv)
-				} else {
-					collideSIMD(t, nv)
-				}
+			switch {
+			case nv == 0 || whole:
+			case s.path == KernelAVX2 && f32:
+				collideAVX2_32(t, nv)
+			case s.path == KernelAVX2:
+				collideAVX2(t, nv)
+			case f32:
+				collideSIMD32(t, nv)
+			default:
+				collideSIMD(t, nv)
 			}
 			if nv < nb {
 				rest(a, b, &s.off, k0, k1, nv, t)

@@ -6,75 +6,95 @@ import (
 	"testing"
 )
 
-// TestSIMDMatchesPortable runs the same lattices with the SIMD kernel and
-// with the portable Go kernel and asks for the same bits: every population
-// after 25 steps and the moments of Fields. The grid is not a multiple of
-// the SIMD width and a solid block cuts rows into runs of odd lengths, so
-// full vectors, tails and runs shorter than one vector all occur; the
-// cases cover the axisymmetric passes (TRT, MRT) and the planar kernel
-// (BGK, TRT), closed and periodic ends, with a body force.
+// TestSIMDMatchesPortable runs the same lattices with each SIMD kernel
+// path this processor can run (AVX-512, AVX2) and with the portable Go
+// kernel and asks for the same bits: every population after 25 steps and
+// the moments of Fields. The grid is not a multiple of either SIMD width
+// and a solid block cuts rows into runs of odd lengths, so full vectors,
+// tails and runs shorter than one vector all occur; the cases cover the
+// axisymmetric passes (TRT, MRT) and the planar kernel (BGK, TRT), closed
+// and periodic ends, with a body force. TestSIMDMatchesPortable32 does the
+// same with float32 storage.
 func TestSIMDMatchesPortable(t *testing.T) {
-	if !simdAvailable {
-		t.Skip("SKIPPED: this processor or build has no SIMD kernel (AVX-512 on amd64); only the portable kernel is tested")
+	testSIMDMatchesPortable(t, false)
+}
+
+// TestSIMDMatchesPortable32 is TestSIMDMatchesPortable with float32
+// storage of the populations (Config.Single).
+func TestSIMDMatchesPortable32(t *testing.T) {
+	testSIMDMatchesPortable(t, true)
+}
+
+func testSIMDMatchesPortable(t *testing.T, single bool) {
+	paths := Kernels()
+	if len(paths) == 1 {
+		t.Skip("SKIPPED: this processor or build has no SIMD kernel (AVX-512 or AVX2 on amd64, without the purego tag); only the portable kernel is tested")
 	}
 	if goFusesMultiplyAdd {
-		t.Skip("SKIPPED: built with GOAMD64=v3 or later, Go fuses multiply-adds in the portable kernel, which then rounds differently from the SIMD one; build with the default GOAMD64 to compare them")
+		t.Skip("SKIPPED: built with GOAMD64=v3 or later, Go fuses multiply-adds in the portable kernel, which then rounds differently from the SIMD ones; build with the default GOAMD64 to compare them")
 	}
 	type variant struct {
-		col              Collision
-		axi, per, single bool
+		col      Collision
+		axi, per bool
 	}
-	for _, v := range []variant{
-		{TRT, true, false, false}, {TRT, true, true, false}, {MRT, true, false, false},
-		{BGK, false, true, false}, {TRT, false, false, false},
-		{TRT, true, false, true}, {BGK, false, true, true}, {MRT, true, true, true},
-	} {
-		name := fmt.Sprintf("%v/axisymmetric=%v/periodic=%v/float32=%v", v.col, v.axi, v.per, v.single)
-		t.Run(name, func(t *testing.T) {
-			run := func(portable bool) (*Solver, *Fields) {
-				s, err := New(Config{Nz: 83, Nr: 21, Tau: 0.62, Collision: v.col,
-					Axisymmetric: v.axi, PeriodicZ: v.per, Threads: 2, Portable: portable, Single: v.single})
-				if err != nil {
-					t.Fatal(err)
-				}
-				if got, want := s.Kernel(), map[bool]string{true: "portable", false: "avx512"}[portable]; got != want {
-					t.Fatalf("kernel %q, want %q", got, want)
-				}
-				for j := 3; j < 9; j++ { // runs of 30-j and 83-37-j nodes beside it
-					for k := 30 - j; k < 37; k++ {
-						s.SetSolid(k, j, true)
+	variants := []variant{
+		{TRT, true, false}, {TRT, true, true}, {MRT, true, false},
+		{BGK, false, true}, {TRT, false, false}, {MRT, true, true},
+	}
+	run := func(t *testing.T, v variant, path KernelPath) (*Solver, *Fields) {
+		s, err := New(Config{Nz: 83, Nr: 21, Tau: 0.62, Collision: v.col,
+			Axisymmetric: v.axi, PeriodicZ: v.per, Threads: 2, Kernel: path, Single: single})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := s.Kernel(); got != path {
+			t.Fatalf("kernel %q, want %q", got, path)
+		}
+		for j := 3; j < 9; j++ { // runs of 30-j and 83-37-j nodes beside it
+			for k := 30 - j; k < 37; k++ {
+				s.SetSolid(k, j, true)
+			}
+		}
+		for k := 60; k < 83; k += 4 { // and runs of 3, 2 and 1 nodes
+			s.SetSolid(k, 12, true)
+			s.SetSolid(k+1, 13, true)
+			s.SetSolid(k+2, 13, true)
+		}
+		randomState(s, 11)
+		s.SetForce(2e-5, -1e-5)
+		for range 25 {
+			s.Step()
+		}
+		return s, s.Fields(nil)
+	}
+	for _, path := range paths[:len(paths)-1] {
+		for _, v := range variants {
+			name := fmt.Sprintf("%s/%v/axisymmetric=%v/periodic=%v", path, v.col, v.axi, v.per)
+			t.Run(name, func(t *testing.T) {
+				sv, fv := run(t, v, path)
+				sp, fp := run(t, v, KernelPortable)
+				defer sv.Close()
+				defer sp.Close()
+				diff := 0
+				for i := range Q {
+					for n := range sv.planeLen() {
+						if math.Float64bits(sv.pop(i, n)) != math.Float64bits(sp.pop(i, n)) {
+							diff++
+						}
 					}
 				}
-				randomState(s, 11)
-				s.SetForce(2e-5, -1e-5)
-				for range 25 {
-					s.Step()
+				if diff > 0 {
+					t.Errorf("%d populations differ between the %s and the portable kernel", diff, path)
 				}
-				return s, s.Fields(nil)
-			}
-			sv, fv := run(false)
-			sp, fp := run(true)
-			defer sv.Close()
-			defer sp.Close()
-			diff := 0
-			for i := range Q {
-				for n := range sv.planeLen() {
-					if math.Float64bits(sv.pop(i, n)) != math.Float64bits(sp.pop(i, n)) {
-						diff++
+				for n := range fv.Rho {
+					if fv.Rho[n] != fp.Rho[n] || fv.Uz[n] != fp.Uz[n] || fv.Ur[n] != fp.Ur[n] {
+						t.Errorf("moments at node %d differ: %v %v %v vs %v %v %v",
+							n, fv.Rho[n], fv.Uz[n], fv.Ur[n], fp.Rho[n], fp.Uz[n], fp.Ur[n])
+						break
 					}
 				}
-			}
-			if diff > 0 {
-				t.Errorf("%d populations differ between the SIMD and the portable kernel", diff)
-			}
-			for n := range fv.Rho {
-				if fv.Rho[n] != fp.Rho[n] || fv.Uz[n] != fp.Uz[n] || fv.Ur[n] != fp.Ur[n] {
-					t.Errorf("moments at node %d differ: %v %v %v vs %v %v %v",
-						n, fv.Rho[n], fv.Uz[n], fv.Ur[n], fp.Rho[n], fp.Uz[n], fp.Ur[n])
-					break
-				}
-			}
-		})
+			})
+		}
 	}
 }
 

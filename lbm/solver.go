@@ -30,7 +30,7 @@ type Solver struct {
 	gr    float64       // uniform body force density, r
 	steps int64         // steps taken
 	kernT time.Duration // wall time spent in the fused kernel
-	simd  bool          // the block loops run in SIMD (simd_amd64.s)
+	path  KernelPath    // the path of the block loops (see KernelPath)
 	// haloStale: the lattice changed since the kernel wrote the end ghosts
 	// (see fillHalo)
 	haloStale bool
@@ -50,6 +50,10 @@ type rowConst struct {
 // New makes a lattice at rest (all deviations zero).
 func New(cfg Config) (*Solver, error) {
 	if err := cfg.check(); err != nil {
+		return nil, err
+	}
+	path, err := ResolveKernel(cfg.Kernel)
+	if err != nil {
 		return nil, err
 	}
 	s := &Solver{cfg: cfg, nz: cfg.Nz, nr: cfg.Nr, w: cfg.Nz + 2}
@@ -93,7 +97,7 @@ func New(cfg Config) (*Solver, error) {
 	s.rowSum = make([]float64, cfg.Nr)
 	s.pool = newPool(cfg.Nr, cfg.threads())
 	s.kernel = s.streamCollideRows
-	s.simd = simdAvailable && !cfg.Portable
+	s.path = path
 	s.haloStale = true
 	s.blocks = make([]*block, s.Threads())
 	for w := range s.blocks {
@@ -111,14 +115,9 @@ func (s *Solver) Config() Config { return s.cfg }
 // Size returns the number of nodes along z and r.
 func (s *Solver) Size() (nz, nr int) { return s.nz, s.nr }
 
-// Kernel names the kernel the steps run: "avx512" (the SIMD block loops)
-// or "portable" (Go only).
-func (s *Solver) Kernel() string {
-	if s.simd {
-		return "avx512"
-	}
-	return "portable"
-}
+// Kernel names the path of the block loops the steps run: KernelAVX512,
+// KernelAVX2 or KernelPortable, never KernelAuto.
+func (s *Solver) Kernel() KernelPath { return s.path }
 
 // Parallel calls fn(w, workers) once on each of the solver's worker
 // goroutines, w = 0 .. workers-1 (w = 0 on the caller's), and waits for all
