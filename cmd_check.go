@@ -9,6 +9,7 @@ import (
 
 	"axiswim/cases"
 	"axiswim/drive"
+	"axiswim/lbm"
 	"axiswim/output"
 )
 
@@ -133,7 +134,9 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 	if l.Single {
 		prec = "float32"
 	}
-	fmt.Fprintf(stdout, "  kernel          %s, %s storage of the populations\n", sim.Fluid.Kernel(), prec)
+	fmt.Fprintf(stdout, "  kernel          %s, %s storage of the populations\n", sim.Fluid.Kernel().Describe(), prec)
+	fmt.Fprintf(stdout, "                  %s (%s = %s to choose; all give the same bits)\n",
+		lbm.KernelOrigin(), lbm.KernelEnv, lbm.KernelNames(lbm.Kernels()))
 
 	if len(l.Warnings) > 0 {
 		fmt.Fprintln(stdout, "\nwarnings:")

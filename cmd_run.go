@@ -167,8 +167,8 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 
 // printSummary tells the user what the run found, in a few lines.
 func printSummary(w io.Writer, dir string, sum *drive.Summary) {
-	fmt.Fprintf(w, "%s: %d steps, %.4g s simulated in %.1f s wall (%.1f MLUPS)\n",
-		dir, sum.Steps, sum.SimulatedTime, sum.WallTime, sum.MLUPS)
+	fmt.Fprintf(w, "%s: %d steps, %.4g s simulated in %.1f s wall (%.1f MLUPS, %s kernel, %d goroutines)\n",
+		dir, sum.Steps, sum.SimulatedTime, sum.WallTime, sum.MLUPS, sum.Lattice.Kernel, sum.Lattice.Threads)
 	if sum.MeanVelocity != nil {
 		u, du := *sum.MeanVelocity, *sum.MeanVelocityUncertainty
 		switch {

@@ -17,6 +17,10 @@
 //	axiswim onset [-param KEY] [-between LO,HI] [-tol F] [-floor M/S] [-jobs N] [-warm] CASE.toml
 //	axiswim onset -resume DIR
 //	axiswim help
+//
+// The environment variable AXISWIM_KERNEL (portable, avx2 or avx512)
+// chooses the path of the fluid kernel; unset, the fastest the processor
+// has runs. All paths give the same bits.
 package main
 
 import (
@@ -24,6 +28,9 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"strings"
+
+	"axiswim/lbm"
 )
 
 // Exit statuses.
@@ -68,6 +75,10 @@ func usage(w io.Writer) {
 	fmt.Fprintln(w)
 	fmt.Fprintln(w, "Run 'axiswim COMMAND -h' for a command's options. Case files are TOML in SI units;")
 	fmt.Fprintln(w, "'axiswim cases demo' prints a complete example.")
+	if k, err := lbm.ResolveKernel(lbm.KernelAuto); err == nil {
+		fmt.Fprintf(w, "Fluid kernel: %s, %s; %s=%s chooses (all give the same bits).\n",
+			k, lbm.KernelOrigin(), lbm.KernelEnv, strings.ReplaceAll(lbm.KernelNames(lbm.Kernels()), ", ", "|"))
+	}
 }
 
 func main() {
@@ -82,6 +93,12 @@ func dispatch(args []string, stdout, stderr io.Writer) int {
 	for _, c := range commands() {
 		if c.name != args[0] || c.run == nil {
 			continue
+		}
+		// A kernel path the machine cannot run is refused before any
+		// command writes a file (lbm.New would refuse it later).
+		if _, err := lbm.ResolveKernel(lbm.KernelAuto); err != nil {
+			fmt.Fprintf(stderr, "axiswim %s: %v\n", c.name, err)
+			return exitUsage
 		}
 		err := c.run(args[1:], stdout, stderr)
 		switch {

@@ -8,6 +8,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"axiswim/lbm"
 )
 
 func run(t *testing.T, args ...string) (code int, stdout, stderr string) {
@@ -76,6 +78,9 @@ func TestRunPipe(t *testing.T) {
 	var sum struct {
 		Completed   bool    `json:"completed"`
 		FinalMaxSpd float64 `json:"final_max_speed_m_s"`
+		Lattice     struct {
+			Kernel string `json:"kernel"`
+		} `json:"lattice"`
 	}
 	data, _ := os.ReadFile(filepath.Join(out, "summary.json"))
 	if err := json.Unmarshal(data, &sum); err != nil {
@@ -89,6 +94,9 @@ func TestRunPipe(t *testing.T) {
 	if !sum.Completed || sum.FinalMaxSpd < want*0.999 || sum.FinalMaxSpd > want*1.001 {
 		t.Errorf("summary: completed %v, max speed %g, want %g (0.1%%)", sum.Completed, sum.FinalMaxSpd, want)
 	}
+	if k, err := lbm.ResolveKernel(lbm.KernelAuto); err != nil || sum.Lattice.Kernel != string(k) {
+		t.Errorf("summary.json: lattice.kernel %q, want the path in use %q (%v)", sum.Lattice.Kernel, k, err)
+	}
 	// The resolved case runs as it is.
 	if code, _, e := run(t, "check", filepath.Join(out, "case.toml")); code != exitOK {
 		t.Errorf("resolved case does not check: %s", e)
@@ -96,6 +104,29 @@ func TestRunPipe(t *testing.T) {
 	code, _, e := run(t, "run", "-quiet", "-out", out, cs)
 	if code == exitOK || !strings.Contains(e, "not empty") {
 		t.Errorf("second run into %s: exit %d, %q; want a refusal", out, code, e)
+	}
+}
+
+// TestKernelChoice: AXISWIM_KERNEL chooses the kernel path, check names
+// it, and a path the machine cannot run (or no path at all) is refused
+// before the command does anything.
+func TestKernelChoice(t *testing.T) {
+	for _, k := range lbm.Kernels() {
+		t.Setenv(lbm.KernelEnv, string(k))
+		code, out, e := run(t, "check", "-quiet", "cases/examples/pipe-poiseuille.toml")
+		if code != exitOK || !strings.Contains(out, "kernel          "+string(k)) ||
+			!strings.Contains(out, "set by "+lbm.KernelEnv+"="+string(k)) {
+			t.Errorf("%s=%s: check exit %d, does not name the path:\n%s%s", lbm.KernelEnv, k, code, out, e)
+		}
+	}
+	t.Setenv(lbm.KernelEnv, "avx3")
+	out := filepath.Join(t.TempDir(), "run")
+	code, _, e := run(t, "run", "-quiet", "-out", out, "cases/examples/pipe-poiseuille.toml")
+	if code != exitUsage || !strings.Contains(e, lbm.KernelEnv+"=avx3") || !strings.Contains(e, "portable") {
+		t.Errorf("%s=avx3: exit %d, %q; want a usage error naming the value and the choices", lbm.KernelEnv, code, e)
+	}
+	if _, err := os.Stat(out); !os.IsNotExist(err) {
+		t.Errorf("%s=avx3: the refused run made %s", lbm.KernelEnv, out)
 	}
 }
 

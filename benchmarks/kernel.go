@@ -2,7 +2,6 @@ package main
 
 import (
 	"fmt"
-	"os"
 	"slices"
 	"strconv"
 	"strings"
@@ -207,17 +206,9 @@ func measureKernel(k kernel, g grid, threads int, dur time.Duration) (kernelResu
 // chooses by default here, how it was chosen, and every one the machine
 // runs.
 func kernelHeader() string {
-	how := "the fastest this processor has"
-	if v := os.Getenv(lbm.KernelEnv); strings.TrimSpace(v) != "" {
-		how = lbm.KernelEnv + "=" + v
-	}
 	def, err := lbm.ResolveKernel(lbm.KernelAuto)
 	if err != nil {
 		return err.Error()
 	}
-	var all []string
-	for _, p := range lbm.Kernels() {
-		all = append(all, string(p))
-	}
-	return fmt.Sprintf("%s (%s); paths this machine runs: %s", def.Describe(), how, strings.Join(all, ", "))
+	return fmt.Sprintf("%s, %s; paths this machine runs: %s", def.Describe(), lbm.KernelOrigin(), lbm.KernelNames(lbm.Kernels()))
 }

@@ -96,7 +96,7 @@ func run(w io.Writer, cfg runConfig) error {
 	fmt.Fprintf(w, "Triad:  3 x %s arrays, best of %d passes\n", mib(cfg.triadLen*8), cfg.reps)
 	fmt.Fprintf(w, "Kernel: %s\n", kernelHeader())
 	fmt.Fprintf(w, "Timed:  paths %s; tau %g, periodic ends, force %g; %d warm-up steps, best batch over %v\n",
-		joinPaths(cfg.paths), benchTau, benchForce, warmUpSteps, cfg.dur)
+		lbm.KernelNames(cfg.paths), benchTau, benchForce, warmUpSteps, cfg.dur)
 	if llc > 0 && cfg.triadLen*8 < 4*llc {
 		fmt.Fprintf(w, "WARNING: each triad array is smaller than 4 x LLC; the triad may measure cache, not DRAM\n")
 	}
@@ -178,14 +178,6 @@ func pathKernels(paths []lbm.KernelPath) []kernel {
 		}
 	}
 	return ks
-}
-
-func joinPaths(ps []lbm.KernelPath) string {
-	s := make([]string, len(ps))
-	for i, p := range ps {
-		s[i] = string(p)
-	}
-	return strings.Join(s, ", ")
 }
 
 // parseThreads reads a comma-separated list of goroutine counts; ""

@@ -109,6 +109,7 @@ type LatticeSummary struct {
 	StepsPerPeriod int     `json:"steps_per_period,omitempty"`
 	Bound          string  `json:"time_step_bound"`
 	Threads        int     `json:"threads"`
+	Kernel         string  `json:"kernel"` // the kernel path: avx512, avx2 or portable
 }
 
 // seriesColumns returns the columns of series.csv.
@@ -214,7 +215,8 @@ func Run(ctx context.Context, c *cases.Case, l *cases.Lattice, opt Options) (*Su
 		Groups:   c.Groups(l),
 		Arms:     c.ArmGroups(l),
 		Lattice: LatticeSummary{Nz: l.Nz, Nr: l.Nr, CellSize: l.Dx, TimeStep: l.Dt, Tau: l.Tau,
-			StepsPerPeriod: l.StepsPerPeriod, Bound: l.Bound, Threads: sim.Fluid.Threads()},
+			StepsPerPeriod: l.StepsPerPeriod, Bound: l.Bound, Threads: sim.Fluid.Threads(),
+			Kernel: string(sim.Fluid.Kernel())},
 		WarmStart: warm,
 	}
 	if warm != nil && !warm.Used {

@@ -100,22 +100,32 @@ func ResolveKernel(k KernelPath) (KernelPath, error) {
 		}
 		if err := KernelPath(strings.ToLower(v)).runnable(); err != nil {
 			return "", fmt.Errorf("lbm: %s=%s: %w (paths this machine runs: %s; unset it for the fastest)",
-				KernelEnv, v, err, joinKernels(Kernels()))
+				KernelEnv, v, err, KernelNames(Kernels()))
 		}
 		return KernelPath(strings.ToLower(v)), nil
 	}
 	if err := k.runnable(); err != nil {
-		return "", fmt.Errorf("lbm: %w (paths this machine runs: %s)", err, joinKernels(Kernels()))
+		return "", fmt.Errorf("lbm: %w (paths this machine runs: %s)", err, KernelNames(Kernels()))
 	}
 	return k, nil
 }
 
-func joinKernels(ks []KernelPath) string {
+// KernelNames lists paths for messages: "avx512, avx2, portable".
+func KernelNames(ks []KernelPath) string {
 	s := make([]string, len(ks))
 	for i, k := range ks {
 		s[i] = string(k)
 	}
 	return strings.Join(s, ", ")
+}
+
+// KernelOrigin says how KernelAuto resolves on this machine: "set by
+// AXISWIM_KERNEL=avx2" or "the fastest this processor has".
+func KernelOrigin() string {
+	if v := strings.TrimSpace(os.Getenv(KernelEnv)); v != "" {
+		return "set by " + KernelEnv + "=" + v
+	}
+	return "the fastest this processor has"
 }
 
 // Describe says in a few words what path k is, for reports: "avx2 (SIMD,
