@@ -145,10 +145,7 @@ func TestCasesPrintsDemo(t *testing.T) {
 // metrics, and PNG pictures that decode, have a plausible size and are not
 // blank (pixel variance above 1% of the largest an 8-bit image can have).
 func TestRunWritesFieldsAndPictures(t *testing.T) {
-	out := filepath.Join(t.TempDir(), "run")
-	if code, _, e := run(t, "run", "-quiet", "-out", out, "testdata/small-swimmer.toml"); code != exitOK {
-		t.Fatalf("run: exit %d: %s", code, e)
-	}
+	out := smallSwimmer(t)
 	for _, f := range []string{"fields/mean.vti", "fields/phase_00.vti", "fields/phases.pvd",
 		"fields/snapshot_p0006_07.vti", "fields/snapshots.pvd", "metrics.csv", "periods.csv"} {
 		if _, err := os.Stat(filepath.Join(out, f)); err != nil {

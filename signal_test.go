@@ -2,23 +2,63 @@ package main
 
 import (
 	"bytes"
+	"fmt"
 	"math/rand/v2"
 	"os"
 	"os/exec"
 	"path/filepath"
 	"strings"
+	"sync"
 	"syscall"
 	"testing"
 	"time"
 )
 
 // TestMain lets the tests run the command itself as a child process
-// (AXISWIM_AS_MAIN=1): the signal tests need a real process to signal.
+// (AXISWIM_AS_MAIN=1): the signal tests need a real process to signal. It
+// also keeps the folder of the runs that several tests share
+// (smallSwimmer).
 func TestMain(m *testing.M) {
 	if os.Getenv("AXISWIM_AS_MAIN") == "1" {
 		os.Exit(dispatch(os.Args[1:], os.Stdout, os.Stderr))
 	}
-	os.Exit(m.Run())
+	dir, err := os.MkdirTemp("", "axiswim-test-")
+	if err != nil {
+		fmt.Fprintln(os.Stderr, err)
+		os.Exit(1)
+	}
+	shared.dir = dir
+	code := m.Run()
+	os.RemoveAll(dir)
+	os.Exit(code)
+}
+
+// shared holds the run of testdata/small-swimmer.toml that several tests
+// read (TestRunWritesFieldsAndPictures checks its files, TestSignals
+// compares interrupted runs with it), made once by smallSwimmer.
+var shared struct {
+	dir  string
+	once sync.Once
+	run  string // the run directory
+	err  error
+}
+
+// smallSwimmer returns the directory of an uninterrupted run of
+// testdata/small-swimmer.toml, made on the first call. Tests must only
+// read it.
+func smallSwimmer(t *testing.T) string {
+	t.Helper()
+	shared.once.Do(func() {
+		shared.run = filepath.Join(shared.dir, "small-swimmer")
+		var o, e bytes.Buffer
+		if code := dispatch([]string{"run", "-quiet", "-out", shared.run, "testdata/small-swimmer.toml"}, &o, &e); code != exitOK {
+			shared.err = fmt.Errorf("run testdata/small-swimmer.toml: exit %d: %s", code, e.String())
+		}
+	})
+	if shared.err != nil {
+		t.Fatal(shared.err)
+	}
+	return shared.run
 }
 
 // child starts the command in a child process.
@@ -69,10 +109,7 @@ func TestSignals(t *testing.T) {
 		t.Skip("runs the small swimmer several times")
 	}
 	tmp := t.TempDir()
-	ref := filepath.Join(tmp, "ref")
-	if code, _, e := run(t, "run", "-quiet", "-out", ref, "testdata/small-swimmer.toml"); code != exitOK {
-		t.Fatalf("reference run: %d %s", code, e)
-	}
+	ref := smallSwimmer(t)
 	files := []string{"series.csv", "periods.csv", "metrics.csv", "fields/mean.vti", "fields/snapshots.pvd"}
 
 	// SIGINT

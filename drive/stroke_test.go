@@ -3,7 +3,6 @@ package drive
 import (
 	"bytes"
 	"context"
-	"math"
 	"slices"
 	"testing"
 
@@ -39,30 +38,21 @@ func threeSphere(t *testing.T, name string, phase string) *Summary {
 	return sum
 }
 
-// TestThreeSphereStroke: the scallop theorem and its way out, on the
-// coarse three-sphere example (Reynolds number about 0.06). With the
-// second arm a quarter period behind, the swimmer moves towards the end
-// of the lagging arm; with the lag reversed it moves the other way at the
-// same speed (the mirror image of the stroke, shifted a quarter period in
-// time, which matters only while it ramps up: within 1% after 4 periods,
-// 9% after 3); with the arms in
-// phase (a reciprocal stroke) its net displacement is below 2% of the
-// lagged one's (Purcell 1977; the row of issue 9; here it is zero to
-// round-off, as the stroke is symmetric under z -> -z).
+// TestThreeSphereStroke: the three-sphere example through a whole run, on
+// the coarse version (Reynolds number about 0.06): with the second arm a
+// quarter period behind, the swimmer moves towards the end of the lagging
+// arm (sphere 3 leads), and the summary sets its speed beside the models.
+// The scallop theorem itself (the reversed lag swims the other way at the
+// same speed, the in-phase stroke not at all; Purcell 1977) is the
+// verification row three-sphere-stokes (drive/verify), which runs the same
+// three strokes and is part of go test; this test ran them too until the
+// AVX2 issue cut the duplicate runs from the test budget.
 func TestThreeSphereStroke(t *testing.T) {
 	lag := threeSphere(t, "three-sphere-lag", "")
-	back := threeSphere(t, "three-sphere-lag", "90.0")
-	rec := threeSphere(t, "three-sphere-reciprocal", "")
-	u, ub := *lag.MeanVelocity, *back.MeanVelocity
-	t.Logf("lag -90: %.4g m/s, lag +90: %.4g m/s, in phase: net %.3g m against %.3g m", u, ub, *rec.NetDisplacement, *lag.NetDisplacement)
+	u := *lag.MeanVelocity
+	t.Logf("lag -90: %.4g m/s, net %.3g m", u, *lag.NetDisplacement)
 	if !(u > 0) || *lag.LeadingSphere != 3 {
 		t.Errorf("lagging arm 2: speed %.3g m/s, leading sphere %d; want +z, sphere 3", u, *lag.LeadingSphere)
-	}
-	if math.Abs(ub+u) > 0.01*math.Abs(u) {
-		t.Errorf("reversed lag: %.4g m/s, want %.4g", ub, -u)
-	}
-	if r := math.Abs(*rec.NetDisplacement / *lag.NetDisplacement); !(r < 0.02) {
-		t.Errorf("reciprocal stroke: net displacement %.3g of the lagged one's", r)
 	}
 	// The summary sets the speed beside the steady-Stokes chain model and
 	// the leading-order formula, flagged as outside their range here

@@ -9,6 +9,7 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"sync"
 	"testing"
 
 	"axiswim/cases"
@@ -41,6 +42,41 @@ func runSmall(t *testing.T, a float64, periods int, o Options) *Summary {
 	return sum
 }
 
+// warmSource is the run that the warm-start tests start from: the small
+// swimmer at 0.30 mm for 6 periods with its final state kept, made once
+// (in a folder that TestMain removes) and only read by the tests.
+var warmSource struct {
+	once sync.Once
+	dir  string
+	err  error
+}
+
+// sharedSource returns the folder of warmSource, running it on the first
+// call.
+func sharedSource(t *testing.T) string {
+	t.Helper()
+	warmSource.once.Do(func() {
+		warmSource.dir, warmSource.err = os.MkdirTemp("", "axiswim-warm-")
+		if warmSource.err != nil {
+			return
+		}
+		c, l := smallAt(t, 3e-4, 6)
+		_, warmSource.err = Run(context.Background(), c, l, Options{Out: warmSource.dir, SaveFinal: true, Threads: 2, Quiet: true})
+	})
+	if warmSource.err != nil {
+		t.Fatal(warmSource.err)
+	}
+	return warmSource.dir
+}
+
+func TestMain(m *testing.M) {
+	code := m.Run()
+	if warmSource.dir != "" {
+		os.RemoveAll(warmSource.dir)
+	}
+	os.Exit(code)
+}
+
 // periodColumn reads one column of periods.csv.
 func periodColumn(t *testing.T, dir, name string) []float64 {
 	t.Helper()
@@ -70,8 +106,7 @@ func periodColumn(t *testing.T, dir, name string) []float64 {
 // evaluated at other arguments: differences of order 1e-16 relative,
 // grown by the steps in between).
 func TestWarmStartContinues(t *testing.T) {
-	src, long, warm := t.TempDir(), t.TempDir(), t.TempDir()
-	runSmall(t, 3e-4, 6, Options{Out: src, SaveFinal: true})
+	src, long, warm := sharedSource(t), t.TempDir(), t.TempDir()
 	runSmall(t, 3e-4, 10, Options{Out: long})
 	sum := runSmall(t, 3e-4, 4, Options{Out: warm, WarmFrom: src})
 	if sum.WarmStart == nil || !sum.WarmStart.Used || sum.WarmStart.Skipped != 1 {
@@ -96,8 +131,7 @@ func TestWarmStartContinues(t *testing.T) {
 // the reference's standard error), and at least three times closer than
 // cold.
 func TestWarmStartShortensTransient(t *testing.T) {
-	src := t.TempDir()
-	runSmall(t, 3e-4, 6, Options{Out: src, SaveFinal: true})
+	src := sharedSource(t)
 	ref := *runSmall(t, 3.3e-4, 16, Options{}).MeanVelocity
 	cold := *runSmall(t, 3.3e-4, 6, Options{}).MeanVelocity
 	warm := *runSmall(t, 3.3e-4, 6, Options{WarmFrom: src}).MeanVelocity
@@ -138,8 +172,7 @@ func TestWarmStartFallsBack(t *testing.T) {
 // TestWarmStartResumes: a warm-started run interrupted during its ramp and
 // resumed ends bit for bit as the uninterrupted one.
 func TestWarmStartResumes(t *testing.T) {
-	src, whole, part := t.TempDir(), t.TempDir(), t.TempDir()
-	runSmall(t, 3e-4, 4, Options{Out: src, SaveFinal: true})
+	src, whole, part := sharedSource(t), t.TempDir(), t.TempDir()
 	runSmall(t, 3.3e-4, 3, Options{Out: whole, WarmFrom: src})
 	_, l := smallAt(t, 3.3e-4, 3)
 	if s := runSmall(t, 3.3e-4, 3, Options{Out: part, WarmFrom: src, StopAfter: int64(l.StepsPerPeriod / 2)}); !s.Interrupted {

@@ -88,10 +88,12 @@ func TestChecks(t *testing.T) {
 // TestChecksFloat32 runs a cheap selection of the quick checks with float32
 // storage of the populations (Options.Single, `axiswim verify -float32`
 // runs them all): the same rows and tolerances must pass, but for the
-// exact-conservation bound, which becomes float32's round-off.
+// exact-conservation bound, which becomes float32's round-off. The
+// oscillating sphere in float32 is free-sphere's (sphere-oscillating, 70%
+// of this test's time, left it for the test budget of the AVX2 issue).
 func TestChecksFloat32(t *testing.T) {
 	want := map[string]bool{"hagen-poiseuille": true, "mass-planar": true, "determinism-moving-sphere": true,
-		"sphere-oscillating": true, "free-sphere": true, "model-vs-simulation": true}
+		"free-sphere": true, "model-vs-simulation": true}
 	for _, c := range Checks() {
 		if !want[c.Name] {
 			continue
