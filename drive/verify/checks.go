@@ -62,6 +62,8 @@ func Checks() []Check {
 		{Name: "demo-float32", Full: true, Run: checkDemoPrecision},
 		{Name: "three-sphere-container", Full: true, Run: checkThreeSphereContainer},
 		{Name: "three-sphere-resolution", Full: true, Run: checkThreeSphereResolution},
+		{Name: "sphere-oscillating-thin", Full: true, Run: checkOscillatingThin},
+		{Name: "sphere-wake-100", Full: true, Run: checkWake100},
 	}
 }
 

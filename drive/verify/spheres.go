@@ -221,13 +221,30 @@ func oscillate(a, aOverDelta, lambda float64, o Options) (z, ref complex128, del
 	return z, ref, delta, nil
 }
 
+// checkOscillating: the force on a sphere oscillating along the axis
+// against the unsteady Stokes impedance, at two Stokes-layer thicknesses
+// (the third, delta = 3 cells, is the full check sphere-oscillating-thin).
 func checkOscillating(o Options) ([]Row, error) {
-	var rows []Row
-	for _, c := range []struct{ a, aod, lambda float64 }{
+	return oscillatingRows(o, []oscillation{
 		{8, 1, 0.125}, // delta = 8 cells; (R - a)/delta = 7: Stokeslet far field screened
 		{8, 2, 0.2},   // delta = 4 cells
-		{15, 5, 0.2},  // delta = 3 cells, the least CHECKS.md 4d allows
-	} {
+	})
+}
+
+// checkOscillatingThin is sphere-oscillating's thinnest Stokes layer, a
+// full check: delta = 3 cells, the least CHECKS.md 4d allows, at 15 cells
+// per radius (56% of the quick check's time when it was part of it).
+func checkOscillatingThin(o Options) ([]Row, error) {
+	return oscillatingRows(o, []oscillation{{15, 5, 0.2}})
+}
+
+// oscillation is one case of the oscillating sphere: radius a in cells,
+// a/delta and a/R.
+type oscillation struct{ a, aod, lambda float64 }
+
+func oscillatingRows(o Options, cs []oscillation) ([]Row, error) {
+	var rows []Row
+	for _, c := range cs {
 		z, ref, delta, err := oscillate(c.a, c.aod, c.lambda, o)
 		if err != nil {
 			return nil, err
@@ -301,15 +318,29 @@ const (
 	srcJP  = "Johnson & Patel 1999, J. Fluid Mech. 378, 19 [M table values]; tol CHECKS.md 5b"
 )
 
-// checkWake: steady drag at Re = 20, 50 and 100 against the standard drag
-// curve (3%), and the recirculation length at Re = 50 and 100 against
-// Johnson & Patel (5%). The tube radius is 10 sphere radii: the closed tube
-// raises the drag by about 1.4% at Re = 20 (measured against lambda = 0.05)
+// checkWake: steady drag at Re = 20 and 50 (and 100 in the full check
+// sphere-wake-100) against the standard drag curve (3%), and the
+// recirculation length at Re = 50 and 100 against Johnson & Patel (5%).
+// The tube radius is 10 sphere radii: the closed tube raises the drag by about 1.4% at Re = 20 (measured against lambda = 0.05)
 // and less at higher Re. Re = 100 needs 12 cells per radius: its boundary
 // layer is about a/sqrt(Re) thick (C_D error 3.9% at 8 cells, 2.8% at 10).
 func checkWake(o Options) ([]Row, error) {
+	return wakeRows(o, []wake{{8, 20}, {8, 50}})
+}
+
+// checkWake100 is sphere-wake at Re = 100, a full check (63% of the quick
+// check's time when it was part of it).
+func checkWake100(o Options) ([]Row, error) {
+	return wakeRows(o, []wake{{12, 100}})
+}
+
+// wake is one case of the sphere wake: radius a in cells and Reynolds
+// number.
+type wake struct{ a, re float64 }
+
+func wakeRows(o Options, cs []wake) ([]Row, error) {
 	var rows []Row
-	for _, c := range []struct{ a, re float64 }{{8, 20}, {8, 50}, {12, 100}} {
+	for _, c := range cs {
 		cd, ls, err := wakeRun(c.a, 0.1, c.re, 15, o)
 		if err != nil {
 			return nil, err
