@@ -5,9 +5,14 @@ import (
 	"sync/atomic"
 )
 
-// pool is a persistent set of goroutines, each owning a fixed slab of rows.
-// A parallel call hands every worker the same function and its slab; no
-// goroutine is created per step.
+// pool is a persistent set of goroutines and a fixed cut of the rows into
+// as many slabs. A parallel call hands every worker the same function;
+// the goroutines (the caller among them) claim the slabs one by one, so
+// that each slab is done once and a goroutine that has no core (more
+// goroutines than GOMAXPROCS, or other processes on the cores) leaves its
+// share to the others instead of holding up the pass. No goroutine is
+// created per step. Which goroutine does a slab never changes a result:
+// a slab's work depends on the slab alone (its index w picks its scratch).
 //
 // A step of a small lattice takes a few hundred microseconds, and the
 // serial work between two parallel passes (boundary links, bodies) tens of
@@ -19,9 +24,12 @@ import (
 type pool struct {
 	slabs [][2]int // rows [lo, hi) of each worker
 
-	fn     func(lo, hi, w int) // the current pass, set before gen is raised
-	gen    atomic.Uint64       // number of passes started
-	left   atomic.Int64        // workers still running the current pass
+	fn   func(lo, hi, w int) // the current pass, set before gen is raised
+	gen  atomic.Uint64       // number of passes started
+	left atomic.Int64        // slabs of the current pass not yet done
+	// claim is the low 32 bits of the current pass's gen, shifted up 32,
+	// plus the next slab to claim (see claimSlabs).
+	claim  atomic.Uint64
 	closed atomic.Bool
 	parked []atomic.Bool // worker w is (about to be) parked on wake[w]
 
@@ -111,10 +119,9 @@ func newPool(rows, n int) *pool {
 	return p
 }
 
-// work is worker w's loop: wait for the next pass, run it on the slab,
-// report.
+// work is worker w's loop: wait for the next pass, claim and run slabs of
+// it, report each.
 func (p *pool) work(w int) {
-	lo, hi := p.slabs[w][0], p.slabs[w][1]
 	var seen uint64
 	for {
 		g := p.gen.Load()
@@ -142,7 +149,26 @@ func (p *pool) work(w int) {
 		if p.closed.Load() {
 			return
 		}
-		p.fn(lo, hi, w)
+		p.claimSlabs(g)
+	}
+}
+
+// claimSlabs claims the slabs of pass g one at a time and runs them until
+// none is left. A goroutine that comes late to a pass (or to a pass that
+// is already over) finds nothing to claim.
+func (p *pool) claimSlabs(g uint64) {
+	n := uint64(len(p.slabs))
+	tag := (g & 0xffffffff) << 32
+	for {
+		c := p.claim.Load()
+		if c&^0xffffffff != tag || c&0xffffffff >= n {
+			return
+		}
+		if !p.claim.CompareAndSwap(c, c+1) {
+			continue
+		}
+		w := int(c & 0xffffffff)
+		p.fn(p.slabs[w][0], p.slabs[w][1], w)
 		if p.left.Add(-1) == 0 && p.callerParked.Load() {
 			select {
 			case p.finished <- struct{}{}:
@@ -152,8 +178,8 @@ func (p *pool) work(w int) {
 	}
 }
 
-// run calls fn on every slab in parallel (slab 0 on the calling goroutine)
-// and waits for all of them.
+// run calls fn on every slab in parallel (the calling goroutine claims
+// slabs too) and waits for all of them.
 func (p *pool) run(fn func(lo, hi, w int)) {
 	n := len(p.slabs)
 	if n == 1 {
@@ -162,10 +188,13 @@ func (p *pool) run(fn func(lo, hi, w int)) {
 	}
 	p.fn = fn
 	p.crowded.Store(n > runtime.GOMAXPROCS(0))
-	p.left.Store(int64(n - 1))
-	p.gen.Add(1)
+	p.left.Store(int64(n))
+	// The claims of the new pass are open before any worker can see it.
+	g := p.gen.Load() + 1
+	p.claim.Store((g & 0xffffffff) << 32)
+	p.gen.Store(g)
 	p.wakeParked()
-	fn(p.slabs[0][0], p.slabs[0][1], 0)
+	p.claimSlabs(g)
 	limit, full := p.spinLimit()
 	for spin := 0; p.left.Load() != 0 && spin < limit; spin++ {
 		p.relax()
@@ -188,11 +217,11 @@ func (p *pool) run(fn func(lo, hi, w int)) {
 
 // relax is one poll's pause of a spinning wait: PAUSE, or when the pool is
 // crowded (more goroutines than GOMAXPROCS) a yield of the P to a
-// goroutine that has work. Measured on 2 cores with GOMAXPROCS=2, the demo
-// with -threads 3 and 4 took 1.52 and 1.36 times as long per period as
-// with 2 goroutines when the waits paused (its goroutines waited for
-// partners that had no P); see benchmarks/README.md for the rates with
-// the yield.
+// goroutine that has work. Measured on 2 cores with GOMAXPROCS=2 (AVX2
+// path), the demo with -threads 3 and 4 took 1.2-1.5 and 1.2-1.4 times as
+// long per period as with 2 goroutines when each goroutine ran its own
+// slab and the waits paused; with the claimed slabs and the yield, 1.0-1.2
+// and 0.9-1.05 (benchmarks/README.md).
 func (p *pool) relax() {
 	if p.crowded.Load() {
 		runtime.Gosched()
