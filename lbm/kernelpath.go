@@ -58,7 +58,7 @@ func (k KernelPath) runnable() error {
 		return nil
 	case KernelAVX2, KernelAVX512:
 	default:
-		return fmt.Errorf("unknown kernel path %q: choose %s", string(k), kernelChoices())
+		return fmt.Errorf("unknown kernel path %q: choose %s", string(k), KernelNames(allKernels[:]))
 	}
 	if runtime.GOARCH != "amd64" {
 		return fmt.Errorf("kernel path %s is for amd64 processors; this is %s, which has only the portable kernel", k, runtime.GOARCH)
@@ -79,15 +79,6 @@ func (k KernelPath) runnable() error {
 	return nil
 }
 
-// kernelChoices lists the valid values of a kernel path.
-func kernelChoices() string {
-	names := make([]string, len(allKernels))
-	for i := range allKernels {
-		names[len(allKernels)-1-i] = string(allKernels[i])
-	}
-	return strings.Join(names, ", ")
-}
-
 // ResolveKernel returns the path a solver with Config.Kernel = k runs:
 // k itself, or for KernelAuto the path AXISWIM_KERNEL names, or the
 // fastest. It is an error when the path is unknown or this processor or
@@ -98,11 +89,12 @@ func ResolveKernel(k KernelPath) (KernelPath, error) {
 		if v == "" {
 			return FastestKernel(), nil
 		}
-		if err := KernelPath(strings.ToLower(v)).runnable(); err != nil {
+		k = KernelPath(strings.ToLower(v))
+		if err := k.runnable(); err != nil {
 			return "", fmt.Errorf("lbm: %s=%s: %w (paths this machine runs: %s; unset it for the fastest)",
 				KernelEnv, v, err, KernelNames(Kernels()))
 		}
-		return KernelPath(strings.ToLower(v)), nil
+		return k, nil
 	}
 	if err := k.runnable(); err != nil {
 		return "", fmt.Errorf("lbm: %w (paths this machine runs: %s)", err, KernelNames(Kernels()))
