@@ -85,7 +85,7 @@ func sameResults(t *testing.T, want, got []byte) {
 // flags that belong to other forms.
 func TestSweepPlan(t *testing.T) {
 	dir := filepath.Join(t.TempDir(), "plan")
-	code, out, e := run(t, "sweep", "-plan", "-threads", "2", "-out", dir, testSweep)
+	code, out, e := cli(t, "sweep", "-plan", "-threads", "2", "-out", dir, testSweep)
 	if code != exitOK {
 		t.Fatalf("plan: exit %d: %s", code, e)
 	}
@@ -131,14 +131,14 @@ func TestSweepPlan(t *testing.T) {
 
 	// Planning again into the same directory is refused and changes nothing.
 	os.WriteFile(filepath.Join(dir, "slurm.sh"), []byte("# edited\n"), 0o644)
-	if code, _, e := run(t, "sweep", "-plan", "-out", dir, testSweep); code == exitOK || !strings.Contains(e, "not empty") {
+	if code, _, e := cli(t, "sweep", "-plan", "-out", dir, testSweep); code == exitOK || !strings.Contains(e, "not empty") {
 		t.Errorf("plan into a planned directory: exit %d, %q; want a refusal", code, e)
 	}
 	if b, _ := os.ReadFile(filepath.Join(dir, "slurm.sh")); string(b) != "# edited\n" {
 		t.Error("a refused plan rewrote slurm.sh")
 	}
 	spaced := filepath.Join(t.TempDir(), "a b")
-	if code, _, e := run(t, "sweep", "-plan", "-out", spaced, testSweep); code != exitUsage || !strings.Contains(e, "#SBATCH") {
+	if code, _, e := cli(t, "sweep", "-plan", "-out", spaced, testSweep); code != exitUsage || !strings.Contains(e, "#SBATCH") {
 		t.Errorf("plan into %q: exit %d, %q; want a usage error naming #SBATCH", spaced, code, e)
 	}
 	if _, err := os.Stat(spaced); err == nil {
@@ -151,7 +151,7 @@ func TestSweepPlan(t *testing.T) {
 		{"sweep", "-plan"},
 		{"collect"},
 	} {
-		if code, _, e := run(t, args...); code != exitUsage || !strings.Contains(e, "usage: axiswim") {
+		if code, _, e := cli(t, args...); code != exitUsage || !strings.Contains(e, "usage: axiswim") {
 			t.Errorf("%v: exit %d, %q; want a usage error", args, code, e)
 		}
 	}
@@ -169,7 +169,7 @@ func TestSweepPointsAndCollect(t *testing.T) {
 	}
 	want := referenceTable(t)
 	dir := filepath.Join(t.TempDir(), "planned")
-	if code, _, e := run(t, "sweep", "-plan", "-threads", "1", "-out", dir, testSweep); code != exitOK {
+	if code, _, e := cli(t, "sweep", "-plan", "-threads", "1", "-out", dir, testSweep); code != exitOK {
 		t.Fatalf("plan: exit %d: %s", code, e)
 	}
 	task := func(n int) {
@@ -186,7 +186,7 @@ func TestSweepPointsAndCollect(t *testing.T) {
 	if _, err := os.Stat(filepath.Join(dir, "results.csv")); err == nil {
 		t.Error("a point wrote results.csv")
 	}
-	code, out, e := run(t, "collect", dir)
+	code, out, e := cli(t, "collect", dir)
 	if code != exitError || !strings.Contains(e, "not run: point(s) 2\n") || !strings.Contains(e, "sbatch --array=2 ") {
 		t.Errorf("collect with point 2 missing: exit %d (want %d)\n%s%s", code, exitError, out, e)
 	}
@@ -196,18 +196,18 @@ func TestSweepPointsAndCollect(t *testing.T) {
 		t.Errorf("results.csv with point 2 missing:\n%s", table)
 	}
 
-	if code, _, e := run(t, "sweep", "-point", "4", dir); code != exitUsage || !strings.Contains(e, "points 1 to 3") {
+	if code, _, e := cli(t, "sweep", "-point", "4", dir); code != exitUsage || !strings.Contains(e, "points 1 to 3") {
 		t.Errorf("-point 4: exit %d, %q; want a usage error naming the range", code, e)
 	}
 	task(2)
 	info, _ := os.Stat(filepath.Join(dir, "point_001", "series.csv"))
-	if code, _, e := run(t, "sweep", "-point", "1", dir); code != exitOK || !strings.Contains(e, "finished earlier, not run again") {
+	if code, _, e := cli(t, "sweep", "-point", "1", dir); code != exitOK || !strings.Contains(e, "finished earlier, not run again") {
 		t.Errorf("-point 1 again: exit %d, %q", code, e)
 	}
 	if again, _ := os.Stat(filepath.Join(dir, "point_001", "series.csv")); !again.ModTime().Equal(info.ModTime()) {
 		t.Error("-point 1 again rewrote its series")
 	}
-	if code, out, e := run(t, "collect", dir); code != exitOK || !strings.Contains(out, "3 of 3 points done") {
+	if code, out, e := cli(t, "collect", dir); code != exitOK || !strings.Contains(out, "3 of 3 points done") {
 		t.Fatalf("collect: exit %d\n%s%s", code, out, e)
 	}
 	got, _ := os.ReadFile(filepath.Join(dir, "results.csv"))
@@ -266,7 +266,7 @@ func TestSweepResumeAfterKill(t *testing.T) {
 	}
 
 	t.Logf("killed with point 2 started: %v", startedTwo)
-	code, _, e := run(t, "sweep", "-threads", "1", "-resume", dir)
+	code, _, e := cli(t, "sweep", "-threads", "1", "-resume", dir)
 	if code != exitOK {
 		t.Fatalf("resume: exit %d\n%s", code, e)
 	}

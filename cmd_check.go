@@ -9,6 +9,7 @@ import (
 
 	"axiswim/cases"
 	"axiswim/drive"
+	"axiswim/drive/run"
 	"axiswim/lbm"
 	"axiswim/output"
 )
@@ -102,7 +103,7 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 	if l.StokesCells > 0 {
 		fmt.Fprintf(stdout, "  Stokes layer    %.3g cells\n", l.StokesCells)
 	}
-	fmt.Fprintf(stdout, "  output          about %s (fields, pictures, series, checkpoint)\n", bytesString(drive.EstimateOutput(c, l)))
+	fmt.Fprintf(stdout, "  output          about %s (fields, pictures, series, checkpoint)\n", bytesString(run.EstimateOutput(c, l)))
 	limit, src := cases.MemoryLimit()
 	fmt.Fprintf(stdout, "  memory          %s (limit %s, %s)\n", bytesString(l.MemoryBytes()), bytesString(limit), src)
 

@@ -9,7 +9,7 @@ import (
 	"strconv"
 	"strings"
 
-	"axiswim/drive"
+	"axiswim/drive/study"
 )
 
 func cmdCollect(args []string, stdout, stderr io.Writer) error {
@@ -32,36 +32,36 @@ func cmdCollect(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return fmt.Errorf("collect %s: %w", dir, err)
 	}
-	results, states := drive.CollectSweep(s, dir)
-	if err := drive.WriteSweepResults(filepath.Join(dir, drive.ResultsFile), s, results); err != nil {
+	results, states := study.CollectSweep(s, dir)
+	if err := study.WriteSweepResults(filepath.Join(dir, study.ResultsFile), s, results); err != nil {
 		return err
 	}
-	if err := drive.WriteSweepPictures(dir, s, results); err != nil {
+	if err := study.WriteSweepPictures(dir, s, results); err != nil {
 		return err
 	}
-	byState := map[drive.PointState][]int{}
+	byState := map[study.PointState][]int{}
 	for i, r := range results {
 		fmt.Fprintln(stdout, pointLine(s, r))
 		byState[states[i]] = append(byState[states[i]], i+1)
 	}
-	done := len(byState[drive.PointDone])
-	fmt.Fprintf(stdout, "%s written: %d of %d points done\n", filepath.Join(dir, drive.ResultsFile), done, len(results))
+	done := len(byState[study.PointDone])
+	fmt.Fprintf(stdout, "%s written: %d of %d points done\n", filepath.Join(dir, study.ResultsFile), done, len(results))
 	var again []int // points a run would continue
 	for _, c := range []struct {
-		state drive.PointState
+		state study.PointState
 		what  string
 	}{
-		{drive.PointNotRun, "not run"},
-		{drive.PointPartial, "no summary (still running, or stopped before its first checkpoint: runs again from the start)"},
-		{drive.PointUnfinished, "unfinished (still running, or stopped at a checkpoint: continues from it)"},
-		{drive.PointFailed, "failed (see results.csv and the point's summary.json)"},
+		{study.PointNotRun, "not run"},
+		{study.PointPartial, "no summary (still running, or stopped before its first checkpoint: runs again from the start)"},
+		{study.PointUnfinished, "unfinished (still running, or stopped at a checkpoint: continues from it)"},
+		{study.PointFailed, "failed (see results.csv and the point's summary.json)"},
 	} {
 		pts := byState[c.state]
 		if len(pts) == 0 {
 			continue
 		}
 		fmt.Fprintf(stderr, "%s: point(s) %s\n", c.what, strings.ReplaceAll(arrayRanges(pts), ",", ", "))
-		if c.state != drive.PointFailed {
+		if c.state != study.PointFailed {
 			again = append(again, pts...)
 		}
 	}

@@ -6,10 +6,10 @@ import (
 	"io"
 	"math"
 
-	"axiswim/drive"
+	"axiswim/drive/model"
 )
 
-// cmdModel prints the reduced linear model of a case (drive.Model): the
+// cmdModel prints the reduced linear model of a case (model.Linear): the
 // amplitude and phase of every sphere and spring, the forces of the arms,
 // and what the model leaves out.
 func cmdModel(args []string, stdout, stderr io.Writer) error {
@@ -31,7 +31,7 @@ func cmdModel(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	r, err := drive.Model(c)
+	r, err := model.Linear(c)
 	if err != nil {
 		return err
 	}

@@ -14,7 +14,7 @@ import (
 	"syscall"
 
 	"axiswim/cases"
-	"axiswim/drive"
+	"axiswim/drive/study"
 	"axiswim/output"
 )
 
@@ -55,14 +55,14 @@ func cmdOnset(args []string, stdout, stderr io.Writer) error {
 	if *jobs < 1 || *threads < 0 {
 		return fmt.Errorf("%w: -jobs must be at least 1 and -threads 0 or more", errUsage)
 	}
-	var search drive.OnsetSearch
+	var search study.OnsetSearch
 	var base []byte
 	var dir string
 	var err error
 	switch {
 	case *resume != "" && fs.NArg() == 0:
 		dir = *resume
-		if search, base, err = drive.LoadOnset(dir); err != nil {
+		if search, base, err = study.LoadOnset(dir); err != nil {
 			return fmt.Errorf("resume: %w", err)
 		}
 		set := false
@@ -108,7 +108,7 @@ func cmdOnset(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintf(stderr, "%s: onset in %s between %g and %g, to %g%%; swimming: |U| > %g standard errors and > %.3g m/s\n",
 		dir, search.Key, search.Lo, search.Hi, 100*search.Tol, search.Sigmas, search.Floor)
-	res, err := drive.RunOnset(ctx, search, base, drive.OnsetRunOptions{Out: dir, Cores: *threads, Log: log, Resume: *resume != ""})
+	res, err := study.RunOnset(ctx, search, base, study.OnsetRunOptions{Out: dir, Cores: *threads, Log: log, Resume: *resume != ""})
 	if err != nil {
 		if ctx.Err() != nil {
 			fmt.Fprintf(stderr, "stopped; continue with: axiswim onset -resume %s\n", dir)
@@ -117,15 +117,15 @@ func cmdOnset(args []string, stdout, stderr io.Writer) error {
 		return err
 	}
 	printOnset(stdout, search, res)
-	fmt.Fprintf(stdout, "written: %s, %s, %s\n", filepath.Join(dir, drive.OnsetTableFile),
-		filepath.Join(dir, drive.OnsetReportFile), filepath.Join(dir, drive.OnsetChartFile))
+	fmt.Fprintf(stdout, "written: %s, %s, %s\n", filepath.Join(dir, study.OnsetTableFile),
+		filepath.Join(dir, study.OnsetReportFile), filepath.Join(dir, study.OnsetChartFile))
 	return nil
 }
 
 // newOnsetSearch reads the case (a file, or an embedded case by name) and
 // the bracket.
-func newOnsetSearch(path, key, between, scale string) (drive.OnsetSearch, []byte, error) {
-	s := drive.OnsetSearch{Key: key}
+func newOnsetSearch(path, key, between, scale string) (study.OnsetSearch, []byte, error) {
+	s := study.OnsetSearch{Key: key}
 	src, err := os.ReadFile(path)
 	if err != nil {
 		if emb, gerr := cases.Get(path); gerr == nil && !strings.ContainsAny(path, `/\.`) {
@@ -168,11 +168,11 @@ func newOnsetSearch(path, key, between, scale string) (drive.OnsetSearch, []byte
 
 // onsetFloor returns the floor asked for, or the default: 1e-4 of the
 // shaking velocity amplitude of the case at the top of the bracket.
-func onsetFloor(search drive.OnsetSearch, base []byte, floor float64) (float64, error) {
+func onsetFloor(search study.OnsetSearch, base []byte, floor float64) (float64, error) {
 	if floor >= 0 {
 		return floor, nil
 	}
-	s, err := drive.NewOnsetSweep(search, base)
+	s, err := study.NewOnsetSweep(search, base)
 	if err != nil {
 		return 0, err
 	}
@@ -184,7 +184,7 @@ func onsetFloor(search drive.OnsetSearch, base []byte, floor float64) (float64, 
 }
 
 // printOnset prints the runs, the bracket, the fits and the verdict.
-func printOnset(w io.Writer, s drive.OnsetSearch, r *drive.Onset) {
+func printOnset(w io.Writer, s study.OnsetSearch, r *study.Onset) {
 	fmt.Fprintf(w, "%4s  %-12s  %-24s  %s\n", "run", s.Key, "mean speed (m/s)", "class")
 	for _, p := range r.Points {
 		class := "not swimming"

@@ -8,7 +8,7 @@ import (
 	"strings"
 
 	"axiswim/cases"
-	"axiswim/drive"
+	"axiswim/drive/study"
 	"axiswim/output"
 )
 
@@ -72,7 +72,7 @@ func planSweep(s *cases.Sweep, out string, cores int, stdout, stderr io.Writer) 
 	if err := s.WriteFiles(dir, output.WriteFileAtomic); err != nil {
 		return err
 	}
-	if err := drive.WritePoints(dir, s); err != nil {
+	if err := study.WritePoints(dir, s); err != nil {
 		return err
 	}
 	if err := os.Mkdir(filepath.Join(dir, "logs"), 0o755); err != nil {
@@ -85,7 +85,7 @@ func planSweep(s *cases.Sweep, out string, cores int, stdout, stderr io.Writer) 
 	n := len(s.Points())
 	fmt.Fprintf(stdout, "planned %d points in %s:\n", n, dir)
 	fmt.Fprintf(stdout, "  sweep.toml, base.toml  the sweep (base case copied)\n")
-	fmt.Fprintf(stdout, "  %-21s  the points, their values and run directories\n", drive.PointsFile)
+	fmt.Fprintf(stdout, "  %-21s  the points, their values and run directories\n", study.PointsFile)
 	fmt.Fprintf(stdout, "  %-21s  the Slurm array job, one task of %d core(s) per point (set its --time first)\n", slurmScript, cores)
 	fmt.Fprintf(stdout, "  %-21s  one log per task\n", "logs/")
 	fmt.Fprintf(stdout, "submit with:  sbatch %s\n", script)

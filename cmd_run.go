@@ -15,7 +15,8 @@ import (
 	"time"
 
 	"axiswim/cases"
-	"axiswim/drive"
+	"axiswim/drive/record"
+	"axiswim/drive/run"
 )
 
 // errStopped marks a run interrupted by a signal.
@@ -150,7 +151,7 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 			fmt.Fprintln(stderr, "stopping after this step and writing what the run has; a second Ctrl-C ends it at once")
 		}
 	}()
-	sum, err := drive.Run(ctx, c, l, drive.Options{Out: dir, Force: *force, Threads: *threads, Quiet: *quiet, Log: stderr,
+	sum, err := run.Execute(ctx, c, l, run.Options{Out: dir, Force: *force, Threads: *threads, Quiet: *quiet, Log: stderr,
 		Resume: *resume != "", CheckpointEvery: time.Duration(*ckMin * float64(time.Minute)), CheckpointPeriods: *ckPer})
 	if sum != nil {
 		printSummary(stdout, dir, sum)
@@ -166,7 +167,7 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 }
 
 // printSummary tells the user what the run found, in a few lines.
-func printSummary(w io.Writer, dir string, sum *drive.Summary) {
+func printSummary(w io.Writer, dir string, sum *run.Summary) {
 	fmt.Fprintf(w, "%s: %d steps, %.4g s simulated in %.1f s wall (%.1f MLUPS, %s kernel, %d goroutines)\n",
 		dir, sum.Steps, sum.SimulatedTime, sum.WallTime, sum.MLUPS, sum.Lattice.Kernel, sum.Lattice.Threads)
 	if sum.MeanVelocity != nil {
@@ -209,7 +210,7 @@ func printSummary(w io.Writer, dir string, sum *drive.Summary) {
 	}
 	for _, g := range sum.Gaps {
 		trend := fmt.Sprintf("%s at %.3g +- %.2g m/s", g.Trend, math.Abs(g.Rate), g.Uncertainty)
-		if g.Trend == drive.GapLocked {
+		if g.Trend == record.GapLocked {
 			trend = fmt.Sprintf("%s (rate %.3g +- %.2g m/s)", g.Trend, g.Rate, g.Uncertainty)
 		}
 		fmt.Fprintf(w, "  gap between swimmers %d and %d: %.4g -> %.4g m (least %.4g), %s\n",

@@ -12,7 +12,7 @@ import (
 	"syscall"
 
 	"axiswim/cases"
-	"axiswim/drive"
+	"axiswim/drive/study"
 	"axiswim/output"
 )
 
@@ -108,7 +108,7 @@ func cmdSweep(args []string, stdout, stderr io.Writer) error {
 	}
 	n := len(s.Points())
 	fmt.Fprintf(stderr, "%s: %d points, %d at a time\n", dir, n, *jobs)
-	results, err := drive.RunSweep(ctx, s, drive.SweepOptions{Out: dir, Jobs: *jobs, Cores: *threads, Log: log, Warm: *warm})
+	results, err := study.RunSweep(ctx, s, study.SweepOptions{Out: dir, Jobs: *jobs, Cores: *threads, Log: log, Warm: *warm})
 	for _, r := range results {
 		fmt.Fprintln(stdout, pointLine(s, r))
 	}
@@ -119,8 +119,8 @@ func cmdSweep(args []string, stdout, stderr io.Writer) error {
 		}
 		return err
 	}
-	fmt.Fprintf(stdout, "%s written\n", filepath.Join(dir, drive.ResultsFile))
-	return drive.SweepFailures(results)
+	fmt.Fprintf(stdout, "%s written\n", filepath.Join(dir, study.ResultsFile))
+	return study.SweepFailures(results)
 }
 
 // signalContext is cancelled by SIGINT or SIGTERM (Slurm's signal at the
@@ -148,7 +148,7 @@ func loadSweepDir(dir string) (*cases.Sweep, error) {
 }
 
 // pointLine is the line printed for a point: number, values, speed or error.
-func pointLine(s *cases.Sweep, r drive.SweepResult) string {
+func pointLine(s *cases.Sweep, r study.SweepResult) string {
 	line := fmt.Sprintf("  %3d  %-40s", r.Index+1, s.Label(r.Point))
 	switch sum := r.Summary; {
 	case r.Err != "":
@@ -171,7 +171,7 @@ func sweepPoint(dir string, n, threads int, quiet bool, stdout, stderr io.Writer
 	total := len(s.Points())
 	if n < 1 || n > total {
 		return fmt.Errorf("%w: -point %d: the sweep in %s has points 1 to %d (see %s)", errUsage, n, dir, total,
-			filepath.Join(dir, drive.PointsFile))
+			filepath.Join(dir, study.PointsFile))
 	}
 	ctx, stop := signalContext()
 	defer stop()
@@ -179,7 +179,7 @@ func sweepPoint(dir string, n, threads int, quiet bool, stdout, stderr io.Writer
 	if quiet {
 		log = io.Discard
 	}
-	r, err := drive.RunSweepPoint(ctx, s, n-1, drive.SweepOptions{Out: dir, Cores: threads, Log: log})
+	r, err := study.RunSweepPoint(ctx, s, n-1, study.SweepOptions{Out: dir, Cores: threads, Log: log})
 	if err != nil {
 		return err
 	}

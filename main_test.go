@@ -12,7 +12,7 @@ import (
 	"axiswim/lbm"
 )
 
-func run(t *testing.T, args ...string) (code int, stdout, stderr string) {
+func cli(t *testing.T, args ...string) (code int, stdout, stderr string) {
 	t.Helper()
 	var o, e bytes.Buffer
 	code = dispatch(args, &o, &e)
@@ -20,7 +20,7 @@ func run(t *testing.T, args ...string) (code int, stdout, stderr string) {
 }
 
 func TestHelpListsCommands(t *testing.T) {
-	code, out, _ := run(t, "help")
+	code, out, _ := cli(t, "help")
 	if code != exitOK {
 		t.Fatalf("exit %d", code)
 	}
@@ -29,7 +29,7 @@ func TestHelpListsCommands(t *testing.T) {
 			t.Errorf("help does not list %q:\n%s", c, out)
 		}
 	}
-	if code, _, _ := run(t, "frobnicate"); code != exitUsage {
+	if code, _, _ := cli(t, "frobnicate"); code != exitUsage {
 		t.Errorf("unknown command: exit %d, want %d", code, exitUsage)
 	}
 }
@@ -43,7 +43,7 @@ func TestCheckTypo(t *testing.T) {
 	if err := os.WriteFile(path, []byte(src), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	code, out, errOut := run(t, "check", path)
+	code, out, errOut := cli(t, "check", path)
 	if code == exitOK {
 		t.Fatal("check accepted a misspelt key")
 	}
@@ -67,7 +67,7 @@ func TestRunPipe(t *testing.T) {
 		t.Fatal(err)
 	}
 	out := filepath.Join(dir, "out")
-	if code, _, e := run(t, "run", "-quiet", "-out", out, cs); code != exitOK {
+	if code, _, e := cli(t, "run", "-quiet", "-out", out, cs); code != exitOK {
 		t.Fatalf("run: exit %d: %s", code, e)
 	}
 	for _, f := range []string{"case.toml", "series.csv", "summary.json"} {
@@ -98,10 +98,10 @@ func TestRunPipe(t *testing.T) {
 		t.Errorf("summary.json: lattice.kernel %q, want the path in use %q (%v)", sum.Lattice.Kernel, k, err)
 	}
 	// The resolved case runs as it is.
-	if code, _, e := run(t, "check", filepath.Join(out, "case.toml")); code != exitOK {
+	if code, _, e := cli(t, "check", filepath.Join(out, "case.toml")); code != exitOK {
 		t.Errorf("resolved case does not check: %s", e)
 	}
-	code, _, e := run(t, "run", "-quiet", "-out", out, cs)
+	code, _, e := cli(t, "run", "-quiet", "-out", out, cs)
 	if code == exitOK || !strings.Contains(e, "not empty") {
 		t.Errorf("second run into %s: exit %d, %q; want a refusal", out, code, e)
 	}
@@ -113,7 +113,7 @@ func TestRunPipe(t *testing.T) {
 func TestKernelChoice(t *testing.T) {
 	for _, k := range lbm.Kernels() {
 		t.Setenv(lbm.KernelEnv, string(k))
-		code, out, e := run(t, "check", "-quiet", "cases/examples/pipe-poiseuille.toml")
+		code, out, e := cli(t, "check", "-quiet", "cases/examples/pipe-poiseuille.toml")
 		if code != exitOK || !strings.Contains(out, "kernel          "+string(k)) ||
 			!strings.Contains(out, "set by "+lbm.KernelEnv+"="+string(k)) {
 			t.Errorf("%s=%s: check exit %d, does not name the path:\n%s%s", lbm.KernelEnv, k, code, out, e)
@@ -121,7 +121,7 @@ func TestKernelChoice(t *testing.T) {
 	}
 	t.Setenv(lbm.KernelEnv, "avx3")
 	out := filepath.Join(t.TempDir(), "run")
-	code, _, e := run(t, "run", "-quiet", "-out", out, "cases/examples/pipe-poiseuille.toml")
+	code, _, e := cli(t, "run", "-quiet", "-out", out, "cases/examples/pipe-poiseuille.toml")
 	if code != exitUsage || !strings.Contains(e, lbm.KernelEnv+"=avx3") || !strings.Contains(e, "portable") {
 		t.Errorf("%s=avx3: exit %d, %q; want a usage error naming the value and the choices", lbm.KernelEnv, code, e)
 	}
@@ -131,11 +131,11 @@ func TestKernelChoice(t *testing.T) {
 }
 
 func TestCasesPrintsDemo(t *testing.T) {
-	code, out, _ := run(t, "cases", "demo")
+	code, out, _ := cli(t, "cases", "demo")
 	if code != exitOK || !strings.Contains(out, "[[sphere]]") {
 		t.Errorf("cases demo: exit %d\n%s", code, out)
 	}
-	if code, _, _ := run(t, "cases", "no-such-case"); code != exitUsage {
+	if code, _, _ := cli(t, "cases", "no-such-case"); code != exitUsage {
 		t.Errorf("unknown case: exit %d", code)
 	}
 }
@@ -199,7 +199,7 @@ func TestRunWritesFieldsAndPictures(t *testing.T) {
 // file.
 func TestGuardCatchesInstability(t *testing.T) {
 	out := filepath.Join(t.TempDir(), "run")
-	code, stdout, e := run(t, "run", "-quiet", "-out", out, "testdata/unstable.toml")
+	code, stdout, e := cli(t, "run", "-quiet", "-out", out, "testdata/unstable.toml")
 	if code != exitError {
 		t.Fatalf("exit %d, want %d (a failed run)\n%s", code, exitError, e)
 	}
@@ -229,7 +229,7 @@ func TestCheckListsAllProblems(t *testing.T) {
 	path := filepath.Join(t.TempDir(), "bad.toml")
 	src := "[fluid]\ndensity = 1000.0\nviscocity = 0.001\n\n[container]\nradius = -0.01\nlength = 0.04\n\n[grid]\ncell_size = 0.001\n\n[run]\nduration = 0.1\n"
 	os.WriteFile(path, []byte(src), 0o644)
-	code, out, _ := run(t, "check", path)
+	code, out, _ := cli(t, "check", path)
 	if code == exitOK {
 		t.Fatal("check accepted a bad case")
 	}
@@ -290,15 +290,15 @@ func TestHelpFlag(t *testing.T) {
 // verify -only runs just the named one (the cheapest, Kelvin functions);
 // an unknown name is refused with the list of known ones.
 func TestVerifySelect(t *testing.T) {
-	code, out, _ := run(t, "verify", "-list")
+	code, out, _ := cli(t, "verify", "-list")
 	if code != exitOK || !strings.Contains(out, "three-sphere-container") || !strings.Contains(out, "kelvin-functions") {
 		t.Errorf("verify -list: exit %d\n%s", code, out)
 	}
-	code, out, errOut := run(t, "verify", "-quiet", "-only", "kelvin-functions")
+	code, out, errOut := cli(t, "verify", "-quiet", "-only", "kelvin-functions")
 	if code != exitOK || !strings.Contains(out, "kelvin functions") || !strings.Contains(out, "10 passed") || strings.Contains(out, "poiseuille") {
 		t.Errorf("verify -only kelvin-functions: exit %d\n%s%s", code, out, errOut)
 	}
-	code, _, errOut = run(t, "verify", "-only", "kelvin,hagen-poiseuille")
+	code, _, errOut = cli(t, "verify", "-only", "kelvin,hagen-poiseuille")
 	if code == exitOK || !strings.Contains(errOut, `no verification check "kelvin"`) || !strings.Contains(errOut, "kelvin-functions") {
 		t.Errorf("verify -only with an unknown name: exit %d, stderr %q", code, errOut)
 	}

@@ -128,7 +128,7 @@ func TestSignals(t *testing.T) {
 	if !strings.Contains(errb.String(), "-resume "+dir) {
 		t.Errorf("the message does not say how to resume:\n%s", errb.String())
 	}
-	if code, _, e := run(t, "run", "-quiet", "-resume", dir); code != exitOK {
+	if code, _, e := cli(t, "run", "-quiet", "-resume", dir); code != exitOK {
 		t.Fatalf("resume after SIGINT: %d %s", code, e)
 	}
 	sameFiles(t, ref, dir, files...)
@@ -145,7 +145,7 @@ func TestSignals(t *testing.T) {
 		time.Sleep(time.Duration(rng.IntN(1500)) * time.Millisecond)
 		cmd.Process.Kill()
 		cmd.Wait()
-		if code, _, e := run(t, "run", "-quiet", "-resume", dir); code != exitOK {
+		if code, _, e := cli(t, "run", "-quiet", "-resume", dir); code != exitOK {
 			t.Fatalf("resume after SIGKILL %d: %d %s", i, code, e)
 		}
 		sameFiles(t, ref, dir, files...)

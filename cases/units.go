@@ -308,8 +308,9 @@ func (l *Lattice) TimeSI(steps float64) float64 { return steps * l.Dt }
 // Velocity converts a speed in m/s to lattice units, u Δt/Δx.
 func (l *Lattice) Velocity(v float64) float64 { return v * l.Dt / l.Dx }
 
-// VelocitySI converts a lattice speed to m/s.
-func (l *Lattice) VelocitySI(uL float64) float64 { return uL * l.Dx / l.Dt }
+// VelocitySI converts a lattice speed to m/s: uL times the lattice's unit
+// of speed Δx/Δt (computed first, as the field conversions always did).
+func (l *Lattice) VelocitySI(uL float64) float64 { return uL * (l.Dx / l.Dt) }
 
 // Acceleration converts an acceleration in m/s^2 to lattice units, a Δt²/Δx.
 func (l *Lattice) Acceleration(a float64) float64 { return a * l.Dt * l.Dt / l.Dx }
@@ -366,6 +367,23 @@ func (l *Lattice) DampingSI(cL float64) float64 { return cL * l.Density * cube(l
 
 // Viscosity converts a kinematic viscosity in m^2/s to lattice units.
 func (l *Lattice) Viscosity(nu float64) float64 { return nu * l.Dt / (l.Dx * l.Dx) }
+
+// Z converts a container-frame axial position in metres to the lattice
+// coordinate, in which node k sits at k + 1/2 and the lower end at 0.
+func (l *Lattice) Z(z float64) float64 { return (z + 0.5*l.Length) / l.Dx }
+
+// ZSI converts a lattice axial coordinate back to metres, container frame
+// (the container's centre at 0).
+func (l *Lattice) ZSI(zl float64) float64 { return zl*l.Dx - 0.5*l.Length }
+
+// RateSI converts a lattice rate (vorticity, strain rate) to 1/s.
+func (l *Lattice) RateSI(rL float64) float64 { return rL / l.Dt }
+
+// CirculationSI converts a lattice circulation to m^2/s.
+func (l *Lattice) CirculationSI(gL float64) float64 { return gL * l.Dx * l.Dx / l.Dt }
+
+// StreamfunctionSI converts a lattice Stokes streamfunction to m^3/s.
+func (l *Lattice) StreamfunctionSI(psiL float64) float64 { return psiL * l.Dx * l.Dx * l.Dx / l.Dt }
 
 // CellUpdates is the total work of the run: Steps x Nz x Nr node updates.
 func (l *Lattice) CellUpdates() float64 {

@@ -1,7 +1,6 @@
 package drive
 
 import (
-	"math"
 	"testing"
 
 	"axiswim/cases"
@@ -10,8 +9,8 @@ import (
 // TestAdvanceAllocatesNothing: once its scratch has grown to working size
 // (one drive period), a step of the coupled swimmer (lattice, boundary
 // links, covering and refilling, dynamics, the mass keeper's correction)
-// allocates nothing, and neither do an observation nor a field sample of
-// the averages (issue 7: zero allocations per step in steady state). The
+// allocates nothing, and neither does an observation (the field sample:
+// record's TestFieldSampleAllocatesNothing) (issue 7: zero allocations per step in steady state). The
 // counts are exact, not averages: one call of many steps is counted.
 // AllocsPerRun counts at GOMAXPROCS 1 (the pool's goroutines still run);
 // with more processors the Go runtime itself allocates a few sudogs for
@@ -49,18 +48,5 @@ func TestAdvanceAllocatesNothing(t *testing.T) {
 	}
 	if a := testing.AllocsPerRun(3, func() { sim.Observe() }); a != 0 {
 		t.Errorf("an observation allocates %g times, want none", a)
-	}
-	// A sample of the mean and phase averages (no snapshot file).
-	r := newFieldRecorder(sim, t.TempDir())
-	p := r.avgStart
-	if p >= r.snapStart {
-		t.Fatalf("period %d of the averaging window also takes snapshots (from %d): pick a case with a longer window", p, r.snapStart)
-	}
-	n := int64(p*r.spp) + int64(math.Round(float64(r.spp)/float64(meanSamplesPerPeriod)))
-	if a := testing.AllocsPerRun(3, func() { r.step(n) }); a != 0 {
-		t.Errorf("a field sample allocates %g times, want none", a)
-	}
-	if r.mean.samples == 0 || r.err != nil {
-		t.Fatalf("the field sample was not taken (%d samples, error %v)", r.mean.samples, r.err)
 	}
 }

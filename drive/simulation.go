@@ -51,7 +51,7 @@ func New(c *cases.Case, l *cases.Lattice, threads int) (*Simulation, error) {
 		fl.Close()
 		return nil, err
 	}
-	s.swimmers = Swimmers(c)
+	s.swimmers = cases.Swimmers(c)
 	s.fields = fl.Fields(nil)
 	s.mass0 = fl.Mass3D(s.fields)
 	return s, nil
@@ -95,9 +95,7 @@ func (s *Simulation) liquidForce(t float64) float64 {
 	if !s.FrameOnLiquid {
 		return 0
 	}
-	l := s.Lattice
-	a := s.Shaker.Acceleration(t) + s.Case.Shaking.Gravity
-	return -a * l.Dt * l.Dt / l.Dx
+	return -s.Lattice.Acceleration(s.Shaker.Acceleration(t) + s.Case.Shaking.Gravity)
 }
 
 // Advance takes n lattice steps: the liquid streams and collides, then
@@ -166,21 +164,20 @@ func (s *Simulation) Observe() Observation {
 		}
 	}
 	l := s.Lattice
-	c := l.Dx / l.Dt
 	umax := math.Sqrt(umax2)
 	return Observation{
 		Time:              t,
 		DriveDisplacement: s.Shaker.Displacement(t),
 		DriveVelocity:     s.Shaker.Velocity(t),
 		DriveAcceleration: s.Shaker.Acceleration(t),
-		MaxSpeed:          umax * c,
+		MaxSpeed:          l.VelocitySI(umax),
 		Mach:              umax / math.Sqrt(lbm.Cs2),
-		MeanAxialVelocity: flux / vol * c,
+		MeanAxialVelocity: l.VelocitySI(flux / vol),
 		MassDrift:         s.massDrift(f, rho),
 		Finite:            finite,
 		MinRho:            minRho,
 		MaxRho:            maxRho,
-		MaxAt:             [2]float64{s.physicalZ(float64(at[0]) + 0.5), (float64(at[1]) + 0.5) * l.Dx},
+		MaxAt:             [2]float64{l.ZSI(float64(at[0]) + 0.5), l.DistanceSI(float64(at[1]) + 0.5)},
 	}
 }
 
@@ -207,9 +204,27 @@ const (
 	guardDensity = 0.1
 )
 
-// Guard returns a diagnosis when an observation breaks a hard limit: which
-// limit, where, and the remedy; "" when all is well.
-func (s *Simulation) Guard(o Observation) string {
+// GuardError is the diagnosis of an observation that broke a hard limit
+// (Simulation.Guard): which limit, where, and the remedy.
+type GuardError struct {
+	Time      float64 // s
+	Diagnosis string
+}
+
+func (e *GuardError) Error() string { return e.Diagnosis }
+
+// Guard returns a *GuardError when an observation breaks a hard limit,
+// nil when all is well.
+func (s *Simulation) Guard(o Observation) error {
+	if d := s.diagnose(o); d != "" {
+		return &GuardError{Time: o.Time, Diagnosis: d}
+	}
+	return nil
+}
+
+// diagnose names the hard limit an observation breaks, where, and the
+// remedy; "" when all is well.
+func (s *Simulation) diagnose(o Observation) string {
 	// where is only formatted when a limit is broken: a guard that holds
 	// allocates nothing.
 	where := func() string {

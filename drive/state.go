@@ -3,29 +3,56 @@ package drive
 import (
 	"fmt"
 
-	"axiswim/output"
+	"axiswim/lbm"
 )
 
-// simState captures the simulation: lattice, bodies, mass keeper.
-func (s *Simulation) capture(st *runState) {
+// State is everything of a simulation that a checkpoint keeps to continue
+// bit for bit: the lattice, the bodies and the mass keeper.
+type State struct {
+	Lattice lbm.LatticeState
+	Bodies  []BodyState
+	Mass    MassState
+	Mass0   float64
+}
+
+// BodyState is one body's part of a State.
+type BodyState struct {
+	Z, V, VPrev                       float64
+	LinkForce, NodeForce, NodeImpulse float64
+	Spread                            []float64
+	Tick, Covered, Uncovered          int
+}
+
+// MassState is the mass keeper's part of a State.
+type MassState struct {
+	Every          int
+	Rho0           float64
+	Drift, Applied float64
+	N              int
+}
+
+// Capture returns the simulation's state.
+func (s *Simulation) Capture() State {
+	var st State
 	st.Lattice = s.Fluid.Snapshot()
 	st.Mass0 = s.mass0
 	if s.sw == nil {
-		return
+		return st
 	}
 	d := s.sw.dyn
 	for k, b := range s.sw.bodies.List {
-		st.Bodies = append(st.Bodies, bodyState{Z: d.Z[k], V: d.V[k], VPrev: d.VPrev[k],
+		st.Bodies = append(st.Bodies, BodyState{Z: d.Z[k], V: d.V[k], VPrev: d.VPrev[k],
 			LinkForce: b.LinkForce, NodeForce: b.NodeForce, NodeImpulse: b.NodeImpulse,
 			Spread: append([]float64(nil), b.spread...), Tick: b.tick, Covered: b.Covered, Uncovered: b.Uncovered})
 	}
 	m := s.sw.mass
-	st.Mass = massState{Every: m.Every, Rho0: m.Rho0, Drift: m.Drift, Applied: m.Applied, N: m.n}
+	st.Mass = MassState{Every: m.Every, Rho0: m.Rho0, Drift: m.Drift, Applied: m.Applied, N: m.n}
+	return st
 }
 
-// restore puts a captured state back into a simulation freshly set up from
-// the same case.
-func (s *Simulation) restore(st *runState) error {
+// Restore puts a captured state back into a simulation freshly set up
+// from the same case.
+func (s *Simulation) Restore(st State) error {
 	if err := s.Fluid.Restore(st.Lattice); err != nil {
 		return err
 	}
@@ -53,89 +80,4 @@ func (s *Simulation) restore(st *runState) error {
 	m := s.sw.mass
 	m.Every, m.Rho0, m.Drift, m.Applied, m.n = st.Mass.Every, st.Mass.Rho0, st.Mass.Drift, st.Mass.Applied, st.Mass.N
 	return nil
-}
-
-func (p *periodTracker) capture() *trackerState {
-	t := &trackerState{N: p.n, Drive: p.drive, Ramp: p.ramp,
-		Ext: append([]complex128(nil), p.ext...), Body: append([]complex128(nil), p.body...),
-		Lo: append([]float64(nil), p.lo...), Hi: append([]float64(nil), p.hi...), Z0: append([]float64(nil), p.z0...),
-		Centroids: append([]float64(nil), p.Centroids...)}
-	for _, r := range p.rows {
-		t.Rows = append(t.Rows, rowState{Period: r.period, Time: r.time, Centroid: r.centroid, Displ: r.displacement,
-			ExtAmp: r.extAmp, ExtPhase: r.extPhase, BodyAmp: r.bodyAmp, BodyPhase: r.bodyPhas, Swim: r.swim, Gaps: r.gaps})
-	}
-	t.Swim, t.Gaps = cloneRows(p.swim), cloneRows(p.gaps)
-	t.GapMin = append([]float64(nil), p.gapMin...)
-	t.MinGap, t.MinPair, t.HasMinGap = p.minGap, p.minPair, true
-	return t
-}
-
-func cloneRows(x [][]float64) [][]float64 {
-	var out [][]float64
-	for _, r := range x {
-		out = append(out, append([]float64(nil), r...))
-	}
-	return out
-}
-
-func (p *periodTracker) restore(t *trackerState) {
-	p.n, p.drive, p.ramp = t.N, t.Drive, t.Ramp
-	copy(p.ext, t.Ext)
-	copy(p.body, t.Body)
-	copy(p.lo, t.Lo)
-	copy(p.hi, t.Hi)
-	copy(p.z0, t.Z0)
-	p.Centroids = append([]float64(nil), t.Centroids...)
-	p.rows = nil
-	for _, r := range t.Rows {
-		p.rows = append(p.rows, periodRow{period: r.Period, time: r.Time, centroid: r.Centroid, displacement: r.Displ,
-			extAmp: r.ExtAmp, extPhase: r.ExtPhase, bodyAmp: r.BodyAmp, bodyPhas: r.BodyPhase, swim: r.Swim, gaps: r.Gaps})
-	}
-	if len(t.Swim) == len(p.swim) {
-		p.swim, p.gaps = cloneRows(t.Swim), cloneRows(t.Gaps)
-		copy(p.gapMin, t.GapMin)
-	}
-	if t.HasMinGap {
-		p.minGap, p.minPair = t.MinGap, t.MinPair
-	}
-}
-
-func (a *fieldAverage) capture() averageState {
-	return averageState{Uz: append([]float64(nil), a.uz...), Ur: append([]float64(nil), a.ur...),
-		Rho: append([]float64(nil), a.rho...), Samples: a.samples, Covered: append([]bool(nil), a.covered...)}
-}
-
-func (a *fieldAverage) restore(s averageState) {
-	copy(a.uz, s.Uz)
-	copy(a.ur, s.Ur)
-	copy(a.rho, s.Rho)
-	copy(a.covered, s.Covered)
-	a.samples = s.Samples
-}
-
-func (r *fieldRecorder) capture() *recorderState {
-	st := &recorderState{Mean: r.mean.capture(), Snaps: append([]output.CollectionEntry(nil), r.snaps...)}
-	for _, p := range r.phase {
-		st.Phase = append(st.Phase, p.capture())
-	}
-	for _, f := range r.frames {
-		st.Frames = append(st.Frames, frameState{Field: f.Field, Psi: f.Psi, Spheres: f.Spheres, Title: f.Title})
-	}
-	return st
-}
-
-func (r *fieldRecorder) restore(st *recorderState) {
-	r.mean.restore(st.Mean)
-	for i, p := range r.phase {
-		if i < len(st.Phase) {
-			p.restore(st.Phase[i])
-		}
-	}
-	r.snaps = append([]output.CollectionEntry(nil), st.Snaps...)
-	r.frames = nil
-	for _, f := range st.Frames {
-		r.frames = append(r.frames, output.FieldPicture{Nz: r.sim.Lattice.Nz, Nr: r.sim.Lattice.Nr,
-			Field: f.Field, Odd: true, Diverging: true, Psi: f.Psi, Spheres: f.Spheres, Title: f.Title,
-			Label: "vorticity (1/s)"})
-	}
 }

@@ -42,9 +42,9 @@ func (s *Simulation) setupBodies() error {
 		cv = 0
 	}
 	for k, sp := range c.Spheres {
-		a := sp.Radius / l.Dx
+		a := l.Distance(sp.Radius)
 		vol := 4.0 / 3 * math.Pi * a * a * a
-		shapes[k] = geometry.Sphere{Z: s.latticeZ(sp.Z), Radius: a}
+		shapes[k] = geometry.Sphere{Z: l.Z(sp.Z), Radius: a}
 		d.Radius[k], d.Volume[k] = a, vol
 		d.Mass[k] = sp.Density / c.Fluid.Density * vol
 		d.Virtual[k] = cv * vol
@@ -52,7 +52,7 @@ func (s *Simulation) setupBodies() error {
 	}
 	for _, sp := range c.Springs {
 		d.Springs = append(d.Springs, SpringLink{I: sp.Spheres[0] - 1, J: sp.Spheres[1] - 1,
-			K: l.Stiffness(sp.Stiffness), L0: sp.RestLength / l.Dx, C: l.Damping(sp.Damping)})
+			K: l.Stiffness(sp.Stiffness), L0: l.Distance(sp.RestLength), C: l.Damping(sp.Damping)})
 	}
 	for _, arm := range c.Arms {
 		i, j := arm.Spheres[0]-1, arm.Spheres[1]-1
@@ -87,17 +87,6 @@ func (s *Simulation) setupBodies() error {
 	return nil
 }
 
-// latticeZ converts a container-frame z in metres to the lattice coordinate
-// (node k sits at k + 1/2, the left end at 0).
-func (s *Simulation) latticeZ(z float64) float64 {
-	return (z + 0.5*s.Lattice.Length) / s.Lattice.Dx
-}
-
-// physicalZ converts back.
-func (s *Simulation) physicalZ(zl float64) float64 {
-	return zl*s.Lattice.Dx - 0.5*s.Lattice.Length
-}
-
 // armLength returns the prescribed arm length in cells as a function of
 // lattice time: length + s(t) amplitude sin(2 pi f t + phase), with the
 // drive's ramp s.
@@ -107,9 +96,9 @@ func (s *Simulation) armLength(arm cases.Arm) func(float64) float64 {
 	ph := arm.Phase * math.Pi / 180
 	ramp := Shaker{Amplitude: 1, Ramp: s.Case.Shaking.RampPeriods / arm.Frequency}
 	return func(t float64) float64 {
-		ts := t * l.Dt
+		ts := l.TimeSI(t)
 		r, _, _ := ramp.ramp(ts)
-		return (arm.Length + r*arm.Amplitude*math.Sin(w*ts+ph)) / l.Dx
+		return l.Distance(arm.Length + r*arm.Amplitude*math.Sin(w*ts+ph))
 	}
 }
 
@@ -215,7 +204,7 @@ func (s *Simulation) Spheres() int {
 // hydrodynamic force of the last step (N).
 func (s *Simulation) SphereState(k int) (z, v, f float64) {
 	d, l := s.sw.dyn, s.Lattice
-	z = s.physicalZ(d.Z[k])
+	z = s.Lattice.ZSI(d.Z[k])
 	v = l.VelocitySI(0.5 * (d.V[k] + d.VPrev[k]))
 	f = l.Force3DSI(s.sw.bodies.List[k].Force())
 	return
@@ -234,7 +223,7 @@ func (s *Simulation) Centroid() float64 {
 	for _, z := range s.sw.dyn.Z {
 		c += z
 	}
-	return s.physicalZ(c / float64(len(s.sw.dyn.Z)))
+	return s.Lattice.ZSI(c / float64(len(s.sw.dyn.Z)))
 }
 
 // MassDrift returns the largest relative drift of the liquid's mean
@@ -244,4 +233,18 @@ func (s *Simulation) MassDrift() (drift, applied float64) {
 		return 0, 0
 	}
 	return s.sw.mass.Drift, s.sw.mass.Applied
+}
+
+// Springs returns the number of springs.
+func (s *Simulation) Springs() int {
+	if s.sw == nil {
+		return 0
+	}
+	return len(s.sw.dyn.Springs)
+}
+
+// SphereCells returns sphere k's centre and radius in lattice units (the
+// lattice coordinate of Cases.Lattice.Z, cells).
+func (s *Simulation) SphereCells(k int) (z, radius float64) {
+	return s.sw.dyn.Z[k], s.sw.dyn.Radius[k]
 }

@@ -7,6 +7,8 @@ import (
 
 	"axiswim/cases"
 	"axiswim/drive"
+	"axiswim/drive/model"
+	"axiswim/drive/record"
 )
 
 // twoSphereCase is a cheap two-sphere swimmer of our own for the
@@ -151,7 +153,7 @@ func checkSymmetric(o Options) ([]Row, error) {
 // 10 delta away, and a stiff spring (resonance at 4 times the drive).
 func checkModel(o Options) ([]Row, error) {
 	c := twoSphereCase(12.5, 0.1e-3, 1500, 600, 0.1, 6)
-	m, err := drive.Model(c)
+	m, err := model.Linear(c)
 	if err != nil {
 		return nil, err
 	}
@@ -239,7 +241,7 @@ func checkDemoResolution(o Options) ([]Row, error) {
 		if err != nil {
 			return nil, err
 		}
-		sp := drive.SwimmingSpeed(cent, T, int(math.Ceil(2*c.Shaking.RampPeriods)))
+		sp := record.SwimmingSpeed(cent, T, int(math.Ceil(2*c.Shaking.RampPeriods)))
 		speeds = append(speeds, sp.Mean)
 	}
 	// One row: the finer speed against the coarser (the reference column
@@ -269,7 +271,7 @@ func checkDemoPrecision(o Options) ([]Row, error) {
 		if err != nil {
 			return nil, err
 		}
-		speeds = append(speeds, drive.SwimmingSpeed(cent, T, int(math.Ceil(2*c.Shaking.RampPeriods))).Mean)
+		speeds = append(speeds, record.SwimmingSpeed(cent, T, int(math.Ceil(2*c.Shaking.RampPeriods))).Mean)
 	}
 	return []Row{
 		relRow("demo", "mean speed (m/s), float32 vs float64 storage", speeds[1], speeds[0], 0.01,

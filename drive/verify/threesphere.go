@@ -5,7 +5,7 @@ import (
 	"math"
 
 	"axiswim/cases"
-	"axiswim/drive"
+	"axiswim/drive/model"
 )
 
 // threeSphereCase is a three-sphere swimmer of our own at low Reynolds
@@ -68,10 +68,10 @@ func lastPeriodSpeed(c *cases.Case, o Options) (float64, error) {
 }
 
 // threeSphereReference returns the leading-order speed (Golestanian &
-// Ajdari 2008; its coefficient derived in drive.ThreeSphereSpeed) and the
-// chain model's (Rotne-Prager point forces, drive.StokesChain) for c.
+// Ajdari 2008; its coefficient derived in model.ThreeSphereSpeed) and the
+// chain model's (Rotne-Prager point forces, model.StokesChain) for c.
 func threeSphereReference(c *cases.Case) (lead, chain float64, err error) {
-	st, err := drive.StokesChain(c)
+	st, err := model.StokesChain(c)
 	if err != nil {
 		return 0, 0, err
 	}
@@ -82,7 +82,7 @@ func threeSphereReference(c *cases.Case) (lead, chain float64, err error) {
 }
 
 // gaSource is the source of the three-sphere rows.
-const gaSource = "V = K d1 d2 omega sin(phi1-phi2), K = (a/6)(1/L1^2+1/L2^2-1/(L1+L2)^2) (Golestanian & Ajdari 2008; K derived, drive.ThreeSphereSpeed)"
+const gaSource = "V = K d1 d2 omega sin(phi1-phi2), K = (a/6)(1/L1^2+1/L2^2-1/(L1+L2)^2) (Golestanian & Ajdari 2008; K derived, model.ThreeSphereSpeed)"
 
 // checkThreeSphere: the quick row of issue 9 at 5 cells per radius in a
 // container 2.5 arm lengths in radius (5 across), with tau = 3.5 (the
@@ -148,7 +148,7 @@ func checkThreeSphereContainer(o Options) ([]Row, error) {
 		last, chainLast = u, chain
 	}
 	rows = append(rows, relRow("three-sphere container", "speed, R = 10 L, against chain model", last, chainLast, 0.05,
-		"Rotne-Prager point forces, unbounded (drive.StokesChain; Rotne & Prager 1969)"))
+		"Rotne-Prager point forces, unbounded (model.StokesChain; Rotne & Prager 1969)"))
 	return rows, nil
 }
 
@@ -181,12 +181,12 @@ func checkThreeSphereResolution(o Options) ([]Row, error) {
 	var rows []Row
 	for i, n := range cells {
 		r := relRow("three-sphere resolution", fmt.Sprintf("speed, %d cells per radius (m/s)", n), u[i], chain, math.Inf(1),
-			"rises toward the chain model (drive.StokesChain)")
+			"rises toward the chain model (model.StokesChain)")
 		r.Unit, r.Pass = "info", rises
 		rows = append(rows, r)
 	}
 	h6, h8 := 1/6.0, 1/8.0
 	extra := u[2] + (u[2]-u[1])*h8*h8/(h6*h6-h8*h8)
 	return append(rows, relRow("three-sphere resolution", "Richardson (6, 8 cells, 2nd order) (m/s)", extra, chain, 0.03,
-		"Rotne-Prager chain model (drive.StokesChain); omega L^2/nu = 1 alone takes 0.8%")), nil
+		"Rotne-Prager chain model (model.StokesChain); omega L^2/nu = 1 alone takes 0.8%")), nil
 }

@@ -1,0 +1,215 @@
+package record
+
+import (
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+
+	"axiswim/drive"
+	"axiswim/lbm"
+	"axiswim/output"
+)
+
+// Fields samples the liquid's fields during a periodic run: the
+// mean (steady streaming) and phase-averaged fields over the averaging
+// window, and instantaneous snapshots at chosen phases of the last
+// periods, written as VTK files with a .pvd collection.
+type Fields struct {
+	sim       *drive.Simulation
+	dir       string // run directory
+	spp       int    // steps per period
+	periods   int
+	avgStart  int // first period of the averaging window (0-based)
+	snapStart int // first period with snapshots
+	phases    int // snapshots (and phase averages) per period
+	mean      *fieldAverage
+	phase     []*fieldAverage
+	snaps     []output.CollectionEntry
+	frames    []output.FieldPicture // vorticity of the last period's snapshots
+	err       error
+
+	// scratch of a sample, reused so that sampling allocates nothing
+	solid []bool    // nodes inside a body
+	body  []float64 // their velocity
+}
+
+// NewFields starts the field record of a periodic simulation that writes
+// into the run directory dir.
+func NewFields(sim *drive.Simulation, dir string) *Fields {
+	c, l := sim.Case, sim.Lattice
+	P := l.Steps / l.StepsPerPeriod
+	r := &Fields{sim: sim, dir: dir, spp: l.StepsPerPeriod, periods: P,
+		phases: c.Output.SnapshotsPerPeriod}
+	r.avgStart = analysisStart(P, sim.SkipPeriods())
+	if n := c.Output.AveragePeriods; n > 0 {
+		r.avgStart = max(0, P-n)
+	}
+	r.snapStart = max(0, P-c.Output.SnapshotPeriods)
+	r.mean = newFieldAverage(l.Nz, l.Nr)
+	for i := 0; i < r.phases; i++ {
+		r.phase = append(r.phase, newFieldAverage(l.Nz, l.Nr))
+	}
+	return r
+}
+
+// phaseIndex returns which of n evenly spaced phases step s of a period
+// is, or -1.
+func phaseIndex(s, spp, n int) int {
+	if n <= 0 {
+		return -1
+	}
+	for m := 0; m < n; m++ {
+		if int(math.Round(float64(m*spp)/float64(n))) == s {
+			return m
+		}
+	}
+	return -1
+}
+
+// Step looks at the state after lattice step n (1-based) and samples it
+// when the schedule asks. After a file could not be written it samples
+// no more and returns that error, as do all later calls.
+func (r *Fields) Step(n int64) error {
+	if r.err != nil {
+		return r.err
+	}
+	p, s := int(n)/r.spp, int(n)%r.spp // period index and step within it
+	if p >= r.periods {
+		return nil
+	}
+	inAvg := p >= r.avgStart
+	mi := phaseIndex(s, r.spp, meanSamplesPerPeriod)
+	pi := phaseIndex(s, r.spp, r.phases)
+	snap := p >= r.snapStart && pi >= 0
+	if !(inAvg && (mi >= 0 || pi >= 0)) && !snap {
+		return nil
+	}
+	r.sim.Observe()
+	f := r.sim.Fields()
+	r.solid = r.sim.SolidMask(r.solid)
+	r.body = r.sim.BodyVelocity(r.body, r.solid)
+	solid, body := r.solid, r.body
+	if inAvg && mi >= 0 {
+		r.mean.add(f, solid, body)
+	}
+	if inAvg && pi >= 0 {
+		r.phase[pi].add(f, solid, body)
+	}
+	if snap && p == r.periods-1 && r.sim.Case.Output.Pictures {
+		r.frames = append(r.frames, vorticityPicture(r.sim, f, solid, body,
+			fmt.Sprintf("vorticity at phase %d/%d of period %d (t = %.4g s)", pi, r.phases, p+1, r.sim.Time())))
+	}
+	if snap && r.sim.Case.Output.VTK {
+		name := fmt.Sprintf("snapshot_p%04d_%02d.vti", p+1, pi)
+		if err := r.writeVTI(name, f, solid); err != nil {
+			r.err = err
+			return err
+		}
+		r.snaps = append(r.snaps, output.CollectionEntry{Time: r.sim.Time(), File: name})
+	}
+	return nil
+}
+
+func (r *Fields) fieldsDir() (string, error) {
+	d := filepath.Join(r.dir, "fields")
+	if err := os.MkdirAll(d, 0o755); err != nil {
+		return "", fmt.Errorf("fields: %w", err)
+	}
+	return d, nil
+}
+
+func (r *Fields) writeVTI(name string, f *lbm.Fields, solid []bool) error {
+	d, err := r.fieldsDir()
+	if err != nil {
+		return err
+	}
+	return output.WriteVTI(filepath.Join(d, name), vtkGrid(r.sim.Lattice), vtkFields(r.sim, f, solid), r.sim.Case.Output.Mirror)
+}
+
+// Finish writes the averaged fields, the snapshot collection and the
+// pictures, and returns the mean field (lattice units) and the nodes a
+// body covered, for the flow metrics.
+func (r *Fields) Finish() (*lbm.Fields, []bool, error) {
+	if r.err != nil {
+		return nil, nil, r.err
+	}
+	mf, mask := r.mean.mean()
+	if err := r.writePictures(mf, mask); err != nil {
+		return nil, nil, err
+	}
+	if !r.sim.Case.Output.VTK || r.mean.samples == 0 {
+		return mf, mask, nil
+	}
+	if err := r.writeVTI("mean.vti", mf, mask); err != nil {
+		return nil, nil, err
+	}
+	var phases []output.CollectionEntry
+	T := r.sim.Lattice.TimeSI(float64(r.spp))
+	for i, a := range r.phase {
+		if a.samples == 0 {
+			continue
+		}
+		f, m := a.mean()
+		name := fmt.Sprintf("phase_%02d.vti", i)
+		if err := r.writeVTI(name, f, m); err != nil {
+			return nil, nil, err
+		}
+		phases = append(phases, output.CollectionEntry{Time: T * float64(i) / float64(len(r.phase)), File: name})
+	}
+	d, _ := r.fieldsDir()
+	if len(phases) > 0 {
+		if err := output.WritePVD(filepath.Join(d, "phases.pvd"), phases); err != nil {
+			return nil, nil, err
+		}
+	}
+	if len(r.snaps) > 0 {
+		if err := output.WritePVD(filepath.Join(d, "snapshots.pvd"), r.snaps); err != nil {
+			return nil, nil, err
+		}
+	}
+	return mf, mask, nil
+}
+
+// writePictures writes the mean vorticity with the mean streamlines and
+// the frames of the last period, all frames on one colour range and one
+// streamline spacing so that they can be played in sequence.
+func (r *Fields) writePictures(mf *lbm.Fields, mask []bool) error {
+	if !r.sim.Case.Output.Pictures {
+		return nil
+	}
+	d, err := picturesDir(r.dir)
+	if err != nil {
+		return err
+	}
+	if r.mean.samples > 0 {
+		p := vorticityPicture(r.sim, mf, mask, nil, fmt.Sprintf("mean flow (steady streaming) over periods %d-%d: vorticity and streamlines",
+			r.avgStart+1, r.periods))
+		if err := output.WriteFieldPNG(filepath.Join(d, "mean_vorticity.png"), p); err != nil {
+			return err
+		}
+	}
+	if len(r.frames) == 0 {
+		return nil
+	}
+	var rng, step float64
+	for i := range r.frames {
+		rng = math.Max(rng, r.frames[i].ColorRange())
+		step = math.Max(step, r.frames[i].ContourStep())
+	}
+	fd := filepath.Join(d, "frames")
+	if err := os.MkdirAll(fd, 0o755); err != nil {
+		return fmt.Errorf("pictures: %w", err)
+	}
+	for i := range r.frames {
+		r.frames[i].Range, r.frames[i].PsiStep = rng, step
+		if err := output.WriteFieldPNG(filepath.Join(fd, fmt.Sprintf("frame_%02d.png", i)), r.frames[i]); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// Averaged returns the periods of the averaging window (first 0-based,
+// last 1-based) and the number of samples of the mean so far.
+func (r *Fields) Averaged() (first, last, samples int) { return r.avgStart, r.periods, r.mean.samples }

@@ -1,0 +1,150 @@
+package record
+
+import (
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+
+	"axiswim/drive"
+	"axiswim/lbm"
+	"axiswim/output"
+)
+
+// History keeps the few numbers per sample that the charts need (a
+// checkpoint keeps it too).
+type History struct {
+	T, Drive, Centroid, Ext []float64
+}
+
+// Add records one sample: time, drive displacement, centroid and the
+// first spring's extension.
+func (h *History) Add(t, drive, centroid, ext float64) {
+	h.T = append(h.T, t)
+	h.Drive = append(h.Drive, drive)
+	h.Centroid = append(h.Centroid, centroid)
+	h.Ext = append(h.Ext, ext)
+}
+
+// picturesDir makes DIR/pictures.
+func picturesDir(dir string) (string, error) {
+	d := filepath.Join(dir, "pictures")
+	if err := os.MkdirAll(d, 0o755); err != nil {
+		return "", fmt.Errorf("pictures: %w", err)
+	}
+	return d, nil
+}
+
+// spheresNow returns the sphere outlines in lattice coordinates.
+func spheresNow(s *drive.Simulation) []output.Circle {
+	var c []output.Circle
+	for k := range s.Spheres() {
+		z, a := s.SphereCells(k)
+		c = append(c, output.Circle{Z: z, Radius: a})
+	}
+	return c
+}
+
+// vorticityPicture returns the picture of a field's vorticity (1/s) with
+// its streamlines, NaN where mask is set. body, when not nil, gives the
+// axial velocity of the masked nodes (the bodies'), so that the
+// streamfunction integrates across them.
+func vorticityPicture(s *drive.Simulation, f *lbm.Fields, mask []bool, body []float64, title string) output.FieldPicture {
+	l := s.Lattice
+	n := f.Nz * f.Nr
+	clean := &lbm.Fields{Nz: f.Nz, Nr: f.Nr, Uz: make([]float64, n), Ur: make([]float64, n), Rho: make([]float64, n)}
+	copy(clean.Uz, f.Uz)
+	copy(clean.Ur, f.Ur)
+	for i := range body {
+		if mask[i] {
+			clean.Uz[i], clean.Ur[i] = body[i], 0
+		}
+	}
+	om := lbm.Vorticity(clean, s.FrameOnLiquid)
+	psi := lbm.Streamfunction(clean)
+	for i := range om {
+		om[i] = l.RateSI(om[i])
+		psi[i] = l.StreamfunctionSI(psi[i])
+		if mask[i] {
+			om[i] = math.NaN()
+		}
+	}
+	return output.FieldPicture{Nz: f.Nz, Nr: f.Nr, Field: om, Odd: true, Diverging: true,
+		Psi: psi, Spheres: spheresNow(s), Title: title, Label: "vorticity (1/s)"}
+}
+
+// WriteCharts draws the swimmer's charts into dir/pictures: the centroid
+// against time with the stroboscopic points, the running mean speed
+// against period, the spring extension against the drive over the last
+// periods, and with several swimmers the gaps between them.
+func WriteCharts(dir string, sim *drive.Simulation, h *History, tr *Periods) error {
+	d, err := picturesDir(dir)
+	if err != nil {
+		return err
+	}
+	T := tr.Period()
+	mm := func(x []float64) []float64 {
+		y := make([]float64, len(x))
+		for i, v := range x {
+			y[i] = v * 1e3
+		}
+		return y
+	}
+	var st, sc []float64
+	for p, c := range tr.centroids {
+		st = append(st, float64(p)*T)
+		sc = append(sc, c*1e3)
+	}
+	if err := output.WriteChartPNG(filepath.Join(d, "centroid.png"), "centroid of the spheres (container frame)",
+		"time (s)", "centroid (mm)", []output.Line{
+			{Label: "centroid", X: h.T, Y: mm(h.Centroid)},
+			{Label: "once per period (stroboscopic)", X: st, Y: sc, Points: true},
+		}); err != nil {
+		return err
+	}
+	var pp, run, per []float64
+	skip := sim.SkipPeriods()
+	for p := 3; p < len(tr.centroids); p++ {
+		sp := SwimmingSpeed(tr.centroids[:p+1], T, skip)
+		pp = append(pp, float64(p))
+		run = append(run, sp.Mean*1e6)
+		per = append(per, (tr.centroids[p]-tr.centroids[p-1])/T*1e6)
+	}
+	if len(pp) > 0 {
+		if err := output.WriteChartPNG(filepath.Join(d, "speed.png"), "mean swimming speed as the run goes on",
+			"period", "speed (um/s)", []output.Line{
+				{Label: "estimate from the periods so far", X: pp, Y: run},
+				{Label: "displacement of each period / T", X: pp, Y: per, Points: true},
+			}); err != nil {
+			return err
+		}
+	}
+	if sim.Springs() > 0 && len(h.T) > 0 {
+		from := 0
+		for from < len(h.T) && h.T[from] < h.T[len(h.T)-1]-3*T {
+			from++
+		}
+		if err := output.WriteChartPNG(filepath.Join(d, "spring.png"), "spring 1 extension and the drive, last periods",
+			"time (s)", "displacement (mm)", []output.Line{
+				{Label: "drive displacement X(t)", X: h.T[from:], Y: mm(h.Drive[from:])},
+				{Label: "spring 1 extension", X: h.T[from:], Y: mm(h.Ext[from:])},
+			}); err != nil {
+			return err
+		}
+	}
+	if len(tr.gaps) > 0 {
+		var lines []output.Line
+		for g, gs := range tr.gaps {
+			l := output.Line{Label: fmt.Sprintf("swimmers %d and %d", g+1, g+2), Points: true}
+			for p, v := range gs {
+				l.X, l.Y = append(l.X, float64(p)*T), append(l.Y, v*1e3)
+			}
+			lines = append(lines, l)
+		}
+		if err := output.WriteChartPNG(filepath.Join(d, "gaps.png"), "surface gaps between neighbouring swimmers, once per period",
+			"time (s)", "gap (mm)", lines); err != nil {
+			return err
+		}
+	}
+	return nil
+}

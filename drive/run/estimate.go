@@ -1,0 +1,70 @@
+package run
+
+import (
+	"math"
+
+	"axiswim/cases"
+)
+
+// sampleSteps returns the steps at which the series is sampled: evenly in
+// each drive period for a shaken case, every sample interval otherwise,
+// and always the last step.
+func sampleSteps(c *cases.Case, l *cases.Lattice) []int64 {
+	var out []int64
+	if l.StepsPerPeriod > 0 {
+		per := max(1, c.Run.SamplesPerPeriod)
+		for p := 0; p < l.Steps/l.StepsPerPeriod; p++ {
+			for k := 1; k <= per; k++ {
+				out = append(out, int64(p*l.StepsPerPeriod+k*l.StepsPerPeriod/per))
+			}
+		}
+	} else {
+		every := int64(math.Max(1, math.Round(c.Run.SampleInterval/l.Dt)))
+		for n := every; n <= int64(l.Steps); n += every {
+			out = append(out, n)
+		}
+	}
+	if len(out) == 0 || out[len(out)-1] != int64(l.Steps) {
+		out = append(out, int64(l.Steps))
+	}
+	w := 0
+	for i, n := range out {
+		if i == 0 || n > out[w-1] {
+			out[w] = n
+			w++
+		}
+	}
+	return out[:w]
+}
+
+// EstimateOutput returns the bytes a run of c on l is expected to write:
+// the series and periods files, the VTK fields (snapshots, phase averages
+// and the mean, five arrays of 64-bit values, seven values a node, twice
+// as many rows when mirrored), the pictures (about 300 kB each) and the
+// checkpoint (the populations and the field accumulators).
+func EstimateOutput(c *cases.Case, l *cases.Lattice) int64 {
+	nodes := int64(l.Nz) * int64(l.Nr)
+	cols := int64(8 + 3*len(c.Spheres) + len(c.Springs))
+	samples := int64(len(sampleSteps(c, l)))
+	total := samples * cols * 18 // about 18 characters a number
+	if l.StepsPerPeriod == 0 {
+		return total + 9*8*nodes
+	}
+	periods := int64(l.Steps / l.StepsPerPeriod)
+	total += periods * int64(4+2*len(c.Springs)+2*len(c.Spheres)) * 18
+	o := c.Output
+	if o.VTK {
+		files := int64(o.SnapshotsPerPeriod*min(o.SnapshotPeriods, int(periods)) + o.SnapshotsPerPeriod + 1)
+		per := nodes * 7 * 8
+		if o.Mirror {
+			per *= 2
+		}
+		total += files * per
+	}
+	if o.Pictures && len(c.Spheres) > 0 {
+		total += int64(4+o.SnapshotsPerPeriod) * 300 << 10
+	}
+	accum := int64(3 * (1 + o.SnapshotsPerPeriod))
+	total += (9*(int64(l.Nz)+2)*(int64(l.Nr)+2) + accum*nodes + 2*int64(o.SnapshotsPerPeriod)*nodes) * 8
+	return total
+}
