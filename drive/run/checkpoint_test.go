@@ -22,7 +22,7 @@ func TestResumeBitForBit(t *testing.T) {
 }
 
 func testResume(t *testing.T, precision string) {
-	c, err := cases.Load("../testdata/small-swimmer.toml")
+	c, err := cases.Load("../../testdata/small-swimmer.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -81,7 +81,7 @@ func testResume(t *testing.T, precision string) {
 // TestResumeRefusesOtherCase: a checkpoint is not resumed against a
 // different case.toml.
 func TestResumeRefusesOtherCase(t *testing.T) {
-	c, err := cases.Load("../testdata/small-swimmer.toml")
+	c, err := cases.Load("../../testdata/small-swimmer.toml")
 	if err != nil {
 		t.Fatal(err)
 	}

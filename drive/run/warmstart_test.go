@@ -19,7 +19,7 @@ import (
 // at shaking amplitude a (m), run for the given number of periods.
 func smallAt(t *testing.T, a float64, periods int) (*cases.Case, *cases.Lattice) {
 	t.Helper()
-	src, err := os.ReadFile("../testdata/sweep-swimmer.toml")
+	src, err := os.ReadFile("../../testdata/sweep-swimmer.toml")
 	if err != nil {
 		t.Fatal(err)
 	}

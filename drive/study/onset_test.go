@@ -191,7 +191,7 @@ func TestOnsetOptions(t *testing.T) {
 // byte for byte; a directory whose record asks for other values is
 // refused.
 func TestRunOnsetResume(t *testing.T) {
-	base, err := os.ReadFile("../testdata/sweep-swimmer.toml")
+	base, err := os.ReadFile("../../testdata/sweep-swimmer.toml")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -60,7 +60,7 @@ func TestCollectSweepStates(t *testing.T) {
 // not run over; a point out of range is an error naming the range.
 func TestRunSweepPointAgain(t *testing.T) {
 	src := "base = \"sweep-swimmer.toml\"\n[[vary]]\nkey = \"shaking.amplitude\"\nvalues = [1e-4, 2e-4]\n"
-	s, err := cases.ParseSweep("again", []byte(src), "../testdata")
+	s, err := cases.ParseSweep("again", []byte(src), "../../testdata")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -16,7 +16,7 @@ import (
 // sweepCase is the small swimmer cut to 2 periods, without fields or
 // pictures, for sweep tests.
 func sweepCase(t *testing.T) string {
-	src, err := os.ReadFile("../testdata/sweep-swimmer.toml")
+	src, err := os.ReadFile("../../testdata/sweep-swimmer.toml")
 	if err != nil {
 		t.Fatal(err)
 	}

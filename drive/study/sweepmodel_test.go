@@ -22,7 +22,7 @@ import (
 // shaking). The summaries are made from the cases, not run: this checks
 // the writing, TestThreeSphereSpeed the model.
 func TestSweepModelColumns(t *testing.T) {
-	src, err := os.ReadFile(filepath.Join("..", "cases", "sweeps", "three-sphere.toml"))
+	src, err := os.ReadFile(filepath.Join("..", "..", "cases", "sweeps", "three-sphere.toml"))
 	if err != nil {
 		t.Fatal(err)
 	}
