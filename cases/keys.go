@@ -14,7 +14,7 @@ type key struct {
 	name     string // the TOML key; "" for the root table
 	field    int    // index of the struct field in its parent
 	kind     keyKind
-	typ      reflect.Type // of a value
+	typ      reflect.Type // of the struct field
 	keys     []*key       // of a table or of each element of an array of tables, in field order
 	required bool         // case:"required"
 	omitzero bool         // toml:",omitzero"
