@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"reflect"
 	"strconv"
 	"strings"
 )
@@ -13,7 +14,8 @@ import (
 // FillDefaults on a copy first), so that the output documents exactly what
 // was run. Parse reads the output back into an equal Case. Values that are
 // zero because they were not given (cell_size, tau, periods, duration, ...)
-// are left out, or written as a comment.
+// are left out, or written as a comment. The keys, their order and their
+// comments are those of the schema types (see [Case]).
 func (c *Case) WriteTOML(w io.Writer) error {
 	cc := c.clone()
 	cc.FillDefaults()
@@ -23,101 +25,7 @@ func (c *Case) WriteTOML(w io.Writer) error {
 		e.comment(cc.Run.Title)
 	}
 	e.comment("axiswim case; every default is filled in. SI units.")
-
-	e.table("fluid")
-	e.float("density", cc.Fluid.Density, "kg/m^3")
-	e.float("viscosity", cc.Fluid.Viscosity, "Pa s, dynamic")
-
-	e.table("container")
-	e.float("radius", cc.Container.Radius, "m")
-	e.float("length", cc.Container.Length, "m; z runs from -length/2 to +length/2")
-	e.str("ends", cc.Container.Ends, `"closed" or "periodic"`)
-
-	e.table("shaking")
-	e.float("frequency", cc.Shaking.Frequency, "Hz; 0 = no shaking")
-	e.float("amplitude", cc.Shaking.Amplitude, "m, container displacement amplitude")
-	e.float("ramp_periods", cc.Shaking.RampPeriods, "periods over which the amplitude is ramped up")
-	e.float("gravity", cc.Shaking.Gravity, "m/s^2 along -z")
-	for _, h := range cc.Shaking.Harmonics {
-		e.array("shaking.harmonic", "")
-		e.line("order = %d # multiple of the drive frequency", h.Order)
-		e.float("amplitude", h.Amplitude, "m")
-		e.float("phase", h.Phase, "degrees")
-	}
-
-	for i, s := range cc.Spheres {
-		e.array("sphere", fmt.Sprintf("sphere %d", i+1))
-		e.float("radius", s.Radius, "m")
-		e.float("density", s.Density, "kg/m^3")
-		e.float("z", s.Z, "m, initial centre")
-	}
-
-	for _, s := range cc.Springs {
-		e.array("spring", "")
-		e.line("spheres = [%d, %d] # 1-based sphere indices", s.Spheres[0], s.Spheres[1])
-		e.float("stiffness", s.Stiffness, "N/m")
-		e.float("rest_length", s.RestLength, "m, centre to centre")
-		e.float("damping", s.Damping, "N s/m")
-	}
-
-	for _, a := range cc.Arms {
-		e.array("arm", "")
-		e.line("spheres = [%d, %d] # 1-based sphere indices", a.Spheres[0], a.Spheres[1])
-		e.float("length", a.Length, "m, mean centre-to-centre distance")
-		e.float("amplitude", a.Amplitude, "m, stroke amplitude")
-		e.float("phase", a.Phase, "degrees")
-		if a.Frequency != 0 {
-			e.float("frequency", a.Frequency, "Hz")
-		} else {
-			e.comment("frequency not given (required without shaking)")
-		}
-	}
-
-	e.table("bodies")
-	e.float("virtual_mass", cc.Bodies.VirtualMass, "virtual-mass coefficient C_V")
-	e.str("coupling", cc.Bodies.Coupling, `"virtual-mass" or "explicit"`)
-	e.float("repulsion_range", cc.Bodies.RepulsionRange, "cells")
-
-	e.table("output")
-	e.line("snapshots_per_period = %d # field snapshots per period (0: none)", cc.Output.SnapshotsPerPeriod)
-	e.line("snapshot_periods = %d # over the last periods", cc.Output.SnapshotPeriods)
-	e.line("average_periods = %d # final periods of the mean fields (0: the speed window)", cc.Output.AveragePeriods)
-	e.line("mirror = %t # VTK shows the full meridian plane", cc.Output.Mirror)
-	e.line("vtk = %t", cc.Output.VTK)
-	e.line("pictures = %t", cc.Output.Pictures)
-
-	e.table("grid")
-	if cc.Grid.CellsPerRadius != 0 {
-		e.line("cells_per_radius = %d # across the smallest sphere", cc.Grid.CellsPerRadius)
-	}
-	if cc.Grid.CellSize != 0 {
-		e.float("cell_size", cc.Grid.CellSize, "m")
-	}
-	if cc.Grid.Tau != 0 {
-		e.float("tau", cc.Grid.Tau, "relaxation time")
-	} else {
-		e.comment("tau not given: the time step is chosen from the stability limits")
-	}
-
-	e.table("solver")
-	e.str("collision", cc.Solver.Collision, `"trt", "mrt" or "bgk"`)
-	e.float("magic", cc.Solver.Magic, "TRT magic parameter")
-	e.str("precision", cc.Solver.Precision, `storage of the populations, "float64" or "float32"`)
-
-	e.table("run")
-	if cc.Run.Periods != 0 {
-		e.line("periods = %d # drive periods", cc.Run.Periods)
-	}
-	if cc.Run.Duration != 0 {
-		e.float("duration", cc.Run.Duration, "s")
-	}
-	if cc.Run.SamplesPerPeriod != 0 {
-		e.line("samples_per_period = %d", cc.Run.SamplesPerPeriod)
-	}
-	if cc.Run.SampleInterval != 0 {
-		e.float("sample_interval", cc.Run.SampleInterval, "s")
-	}
-	e.str("title", cc.Run.Title, "")
+	e.table(caseSchema, reflect.ValueOf(cc).Elem(), "")
 
 	if e.err != nil {
 		return fmt.Errorf("write case: %w", e.err)
@@ -128,14 +36,34 @@ func (c *Case) WriteTOML(w io.Writer) error {
 	return nil
 }
 
-// clone returns a deep copy of c.
+// clone returns a deep copy of c; its empty arrays of tables are nil.
 func (c *Case) clone() *Case {
 	cc := *c
-	cc.Spheres = append([]Sphere(nil), c.Spheres...)
-	cc.Springs = append([]Spring(nil), c.Springs...)
-	cc.Arms = append([]Arm(nil), c.Arms...)
-	cc.Shaking.Harmonics = append([]Harmonic(nil), c.Shaking.Harmonics...)
+	copyArrays(caseSchema, reflect.ValueOf(&cc).Elem())
 	return &cc
+}
+
+// copyArrays gives every array of tables in v, a value of the table t, an
+// element array of its own, or nil when it is empty.
+func copyArrays(t *key, v reflect.Value) {
+	for _, k := range t.keys {
+		f := v.Field(k.field)
+		switch k.kind {
+		case tableKey:
+			copyArrays(k, f)
+		case arrayKey:
+			if f.Len() == 0 {
+				f.SetZero()
+				continue
+			}
+			elems := reflect.MakeSlice(f.Type(), f.Len(), f.Len())
+			reflect.Copy(elems, f)
+			f.Set(elems)
+			for i := range elems.Len() {
+				copyArrays(k, elems.Index(i))
+			}
+		}
+	}
 }
 
 type encoder struct {
@@ -158,32 +86,78 @@ func (e *encoder) comment(text string) {
 	}
 }
 
-func (e *encoder) table(name string) {
-	e.line("\n[%s]", name)
-}
-
-func (e *encoder) array(name, comment string) {
-	if comment != "" {
-		e.line("\n[[%s]] # %s", name, comment)
-	} else {
-		e.line("\n[[%s]]", name)
+// table writes v, a value of the table t whose full key is path: its
+// values first, then its tables and arrays of tables, each under its
+// header.
+func (e *encoder) table(t *key, v reflect.Value, path string) {
+	for _, k := range t.keys {
+		if k.kind == valueKey {
+			e.value(k, v.Field(k.field))
+		}
+	}
+	for _, k := range t.keys {
+		name := k.name
+		if path != "" {
+			name = path + "." + k.name
+		}
+		f := v.Field(k.field)
+		switch k.kind {
+		case tableKey:
+			e.line("\n[%s]", name)
+			e.table(k, f, name)
+		case arrayKey:
+			for i := range f.Len() {
+				if k.note != "" {
+					e.line("\n[[%s]] # %s", name, fmt.Sprintf(k.note, i+1))
+				} else {
+					e.line("\n[[%s]]", name)
+				}
+				e.table(k, f.Index(i), name)
+			}
+		}
 	}
 }
 
-func (e *encoder) float(key string, v float64, comment string) {
-	e.keyValue(key, formatFloat(v), comment)
-}
-
-func (e *encoder) str(key, v, comment string) {
-	e.keyValue(key, quoteString(v), comment)
-}
-
-func (e *encoder) keyValue(key, v, comment string) {
-	if comment != "" {
-		e.line("%s = %s # %s", key, v, comment)
-	} else {
-		e.line("%s = %s", key, v)
+// value writes the value v of the key k, or, when it is an omitted zero,
+// the key's unset comment if it has one.
+func (e *encoder) value(k *key, v reflect.Value) {
+	if k.omitzero && isZero(v) {
+		if k.unset != "" {
+			e.comment(k.unset)
+		}
+		return
 	}
+	if k.note != "" {
+		e.line("%s = %s # %s", k.name, tomlValue(v), k.note)
+	} else {
+		e.line("%s = %s", k.name, tomlValue(v))
+	}
+}
+
+// isZero reports whether v is zero; for a float, whether it equals 0 (as
+// -0 does).
+func isZero(v reflect.Value) bool {
+	if v.CanFloat() {
+		return v.Float() == 0
+	}
+	return v.IsZero()
+}
+
+// tomlValue writes a value of the schema types as TOML.
+func tomlValue(v reflect.Value) string {
+	switch v.Kind() {
+	case reflect.Float32, reflect.Float64:
+		return formatFloat(v.Float())
+	case reflect.String:
+		return quoteString(v.String())
+	case reflect.Array, reflect.Slice:
+		elems := make([]string, v.Len())
+		for i := range elems {
+			elems[i] = tomlValue(v.Index(i))
+		}
+		return "[" + strings.Join(elems, ", ") + "]"
+	}
+	return fmt.Sprint(v.Interface()) // integers and booleans
 }
 
 // formatFloat writes v as a TOML float that parses back to exactly v.

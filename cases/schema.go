@@ -104,32 +104,46 @@ const (
 // the zero value means "not given". Shaking.Gravity and
 // Shaking.RampPeriods and Bodies.VirtualMass may legitimately be zero, so
 // their defaults are applied only by [Default] and [Parse].
+//
+// The struct tags of Case and of the types of its fields are the schema of
+// a case file: Parse decodes into these types and checks the keys against
+// them, WriteTOML writes them out and a [Sweep] varies them. A struct is a
+// table, a slice of structs an array of tables, any other field a value; a
+// Go int takes whole numbers only. The tags are
+//
+//	toml:"key"           the key; with ",omitzero" the zero value means "not
+//	                     given", and WriteTOML leaves it out
+//	case:"required"      Parse reports the key missing when it is absent
+//	note:"text"          the comment after the value in a written case; on an
+//	                     array of tables, the comment of each header, %d
+//	                     standing for the 1-based index
+//	unset:"text"         the comment written in place of an omitted zero value
 type Case struct {
-	Fluid     Fluid
-	Container Container
-	Shaking   Shaking
-	Spheres   []Sphere // [[sphere]], in file order; referred to 1-based
-	Springs   []Spring // [[spring]]
-	Arms      []Arm    // [[arm]]
-	Bodies    Bodies
-	Output    Output
-	Grid      Grid
-	Solver    Solver
-	Run       Run
+	Fluid     Fluid     `toml:"fluid"`
+	Container Container `toml:"container"`
+	Shaking   Shaking   `toml:"shaking"`
+	Spheres   []Sphere  `toml:"sphere" note:"sphere %d"` // [[sphere]], in file order; referred to 1-based
+	Springs   []Spring  `toml:"spring"`                  // [[spring]]
+	Arms      []Arm     `toml:"arm"`                     // [[arm]]
+	Bodies    Bodies    `toml:"bodies"`
+	Output    Output    `toml:"output"`
+	Grid      Grid      `toml:"grid"`
+	Solver    Solver    `toml:"solver"`
+	Run       Run       `toml:"run"`
 }
 
 // Fluid is the [fluid] section.
 type Fluid struct {
-	Density   float64 // kg/m^3, required
-	Viscosity float64 // dynamic viscosity, Pa s, required
+	Density   float64 `toml:"density" case:"required" note:"kg/m^3"`          // kg/m^3, required
+	Viscosity float64 `toml:"viscosity" case:"required" note:"Pa s, dynamic"` // dynamic viscosity, Pa s, required
 }
 
 // Container is the [container] section: a liquid-filled cylinder whose axis
 // is the z axis.
 type Container struct {
-	Radius float64 // m, required
-	Length float64 // m, required; z runs from -Length/2 to +Length/2
-	Ends   string  // EndsClosed (default) or EndsPeriodic
+	Radius float64 `toml:"radius" case:"required" note:"m"`                                     // m, required
+	Length float64 `toml:"length" case:"required" note:"m; z runs from -length/2 to +length/2"` // m, required; z runs from -Length/2 to +Length/2
+	Ends   string  `toml:"ends" note:"\"closed\" or \"periodic\""`                              // EndsClosed (default) or EndsPeriodic
 }
 
 // Shaking is the [shaking] section: the container is displaced along z by
@@ -139,35 +153,35 @@ type Container struct {
 // the ramp s(t) rising smoothly from 0 to 1 over RampPeriods periods; the
 // sum runs over the optional Harmonics.
 type Shaking struct {
-	Frequency   float64 // Hz; 0 means no shaking
-	Amplitude   float64 // m, displacement amplitude A of the container; default 0
-	RampPeriods float64 // default 2; 0 switches the ramp off
-	Gravity     float64 // m/s^2 along -z; default 9.81; 0 allowed
+	Frequency   float64 `toml:"frequency" note:"Hz; 0 = no shaking"`                               // Hz; 0 means no shaking
+	Amplitude   float64 `toml:"amplitude" note:"m, container displacement amplitude"`              // m, displacement amplitude A of the container; default 0
+	RampPeriods float64 `toml:"ramp_periods" note:"periods over which the amplitude is ramped up"` // default 2; 0 switches the ramp off
+	Gravity     float64 `toml:"gravity" note:"m/s^2 along -z"`                                     // m/s^2 along -z; default 9.81; 0 allowed
 	// Harmonics are the [[shaking.harmonic]] entries, in file order.
-	Harmonics []Harmonic
+	Harmonics []Harmonic `toml:"harmonic"`
 }
 
 // Harmonic is one [[shaking.harmonic]] entry: an extra term
 // A_n sin(n ω t + φ_n) of the container displacement.
 type Harmonic struct {
-	Order     int     // n, at least 2
-	Amplitude float64 // A_n, m
-	Phase     float64 // φ_n, degrees; default 0
+	Order     int     `toml:"order" case:"required" note:"multiple of the drive frequency"` // n, at least 2
+	Amplitude float64 `toml:"amplitude" case:"required" note:"m"`                           // A_n, m
+	Phase     float64 `toml:"phase" note:"degrees"`                                         // φ_n, degrees; default 0
 }
 
 // Sphere is one [[sphere]] entry. Spheres are centred on the axis.
 type Sphere struct {
-	Radius  float64 // m
-	Density float64 // kg/m^3
-	Z       float64 // initial centre, m
+	Radius  float64 `toml:"radius" case:"required" note:"m"`            // m
+	Density float64 `toml:"density" case:"required" note:"kg/m^3"`      // kg/m^3
+	Z       float64 `toml:"z" case:"required" note:"m, initial centre"` // initial centre, m
 }
 
 // Spring is one [[spring]] entry joining two spheres.
 type Spring struct {
-	Spheres    [2]int  // 1-based sphere indices
-	Stiffness  float64 // N/m
-	RestLength float64 // m, centre to centre; default the initial centre distance
-	Damping    float64 // N s/m; default 0
+	Spheres    [2]int  `toml:"spheres" case:"required" note:"1-based sphere indices"` // 1-based sphere indices
+	Stiffness  float64 `toml:"stiffness" case:"required" note:"N/m"`                  // N/m
+	RestLength float64 `toml:"rest_length" note:"m, centre to centre"`                // m, centre to centre; default the initial centre distance
+	Damping    float64 `toml:"damping" note:"N s/m"`                                  // N s/m; default 0
 }
 
 // Arm is one [[arm]] entry: a prescribed stroke between two spheres. The
@@ -179,11 +193,12 @@ type Spring struct {
 // the arm), and the group of spheres joined by arms moves force-free as a
 // whole: the arms exert equal and opposite forces only.
 type Arm struct {
-	Spheres   [2]int  // 1-based sphere indices
-	Length    float64 // mean centre-to-centre distance, m
-	Amplitude float64 // stroke amplitude, m
-	Phase     float64 // degrees; default 0
-	Frequency float64 // Hz; default shaking.frequency
+	Spheres   [2]int  `toml:"spheres" case:"required" note:"1-based sphere indices"`           // 1-based sphere indices
+	Length    float64 `toml:"length" case:"required" note:"m, mean centre-to-centre distance"` // mean centre-to-centre distance, m
+	Amplitude float64 `toml:"amplitude" case:"required" note:"m, stroke amplitude"`            // stroke amplitude, m
+	Phase     float64 `toml:"phase" note:"degrees"`                                            // degrees; default 0
+	// Frequency is in Hz; default shaking.frequency.
+	Frequency float64 `toml:"frequency,omitzero" note:"Hz" unset:"frequency not given (required without shaking)"`
 }
 
 // Bodies is the [bodies] section: how the spheres are coupled to the
@@ -193,46 +208,46 @@ type Bodies struct {
 	// m_V = C_V ρ_f Vol added to both sides of the sphere update
 	// (METHODS.md 8.2); default 0.5, which keeps an isolated sphere of any
 	// density stable; 0 allowed.
-	VirtualMass float64
+	VirtualMass float64 `toml:"virtual_mass" note:"virtual-mass coefficient C_V"`
 	// Coupling is CouplingVirtualMass (default) or CouplingExplicit.
-	Coupling string
+	Coupling string `toml:"coupling" note:"\"virtual-mass\" or \"explicit\""`
 	// RepulsionRange is the range, in cells, of the short-range repulsion
 	// between spheres and between a sphere and an end wall (Glowinski,
 	// Pan, Hesla & Joseph 1999, Int. J. Multiphase Flow 25, 755; Glowinski,
 	// Pan, Hesla, Joseph & Périaux 2001, J. Comput. Phys. 169, 363; both
 	// cited from memory in METHODS.md 9.5); default 2.
-	RepulsionRange float64
+	RepulsionRange float64 `toml:"repulsion_range" note:"cells"`
 }
 
 // Grid is the [grid] section.
 type Grid struct {
 	// CellsPerRadius is the number of cells across the radius of the
 	// smallest sphere (default 12). It is used only when there are spheres.
-	CellsPerRadius int
+	CellsPerRadius int `toml:"cells_per_radius,omitzero" note:"across the smallest sphere"`
 	// CellSize is the nominal cell size in metres. It is required, and
 	// allowed, only when there is no sphere.
-	CellSize float64
+	CellSize float64 `toml:"cell_size,omitzero" note:"m"`
 	// Tau is the relaxation time τ⁺. Zero means not given: Resolve then
 	// chooses the time step from the stability limits.
-	Tau float64
+	Tau float64 `toml:"tau,omitzero" note:"relaxation time" unset:"tau not given: the time step is chosen from the stability limits"`
 }
 
 // Solver is the [solver] section.
 type Solver struct {
-	Collision string  // CollisionTRT (default), CollisionMRT or CollisionBGK
-	Magic     float64 // TRT magic parameter Λ; default 3/16
-	Precision string  // storage of the populations: PrecisionDouble (default) or PrecisionSingle
+	Collision string  `toml:"collision" note:"\"trt\", \"mrt\" or \"bgk\""`                            // CollisionTRT (default), CollisionMRT or CollisionBGK
+	Magic     float64 `toml:"magic" note:"TRT magic parameter"`                                        // TRT magic parameter Λ; default 3/16
+	Precision string  `toml:"precision" note:"storage of the populations, \"float64\" or \"float32\""` // storage of the populations: PrecisionDouble (default) or PrecisionSingle
 }
 
 // Run is the [run] section. A shaken case runs for Periods drive periods
 // and samples SamplesPerPeriod times per period; an unshaken case runs for
 // Duration seconds and samples every SampleInterval seconds.
 type Run struct {
-	Periods          int     // required when Shaking.Frequency > 0
-	Duration         float64 // s; required when Shaking.Frequency == 0
-	SamplesPerPeriod int     // default 20 (shaken cases)
-	SampleInterval   float64 // s; default Duration/200 (unshaken cases)
-	Title            string  // optional free text
+	Periods          int     `toml:"periods,omitzero" note:"drive periods"` // required when Shaking.Frequency > 0
+	Duration         float64 `toml:"duration,omitzero" note:"s"`            // s; required when Shaking.Frequency == 0
+	SamplesPerPeriod int     `toml:"samples_per_period,omitzero"`           // default 20 (shaken cases)
+	SampleInterval   float64 `toml:"sample_interval,omitzero" note:"s"`     // s; default Duration/200 (unshaken cases)
+	Title            string  `toml:"title"`                                 // optional free text
 }
 
 // Default returns a case with every unconditional default filled in and
@@ -259,15 +274,15 @@ const DefaultSnapshotsPerPeriod = 8
 type Output struct {
 	// SnapshotsPerPeriod field snapshots at evenly spaced phases of each of
 	// the last SnapshotPeriods periods (0: none).
-	SnapshotsPerPeriod int
-	SnapshotPeriods    int
+	SnapshotsPerPeriod int `toml:"snapshots_per_period" note:"field snapshots per period (0: none)"`
+	SnapshotPeriods    int `toml:"snapshot_periods" note:"over the last periods"`
 	// AveragePeriods is the number of final periods over which the mean
 	// (steady streaming) and phase-averaged fields are accumulated; 0 means
 	// the window of the swimming-speed estimate.
-	AveragePeriods int
-	Mirror         bool // VTK files show the full meridian plane -R..R
-	VTK            bool // write VTK XML fields
-	Pictures       bool // write PNG pictures
+	AveragePeriods int  `toml:"average_periods" note:"final periods of the mean fields (0: the speed window)"`
+	Mirror         bool `toml:"mirror" note:"VTK shows the full meridian plane"` // VTK files show the full meridian plane -R..R
+	VTK            bool `toml:"vtk"`                                             // write VTK XML fields
+	Pictures       bool `toml:"pictures"`                                        // write PNG pictures
 }
 
 // FillDefaults fills in every optional value that is zero (that is, not

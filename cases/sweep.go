@@ -291,7 +291,7 @@ func (s *Sweep) Label(pt Point) string {
 // apply sets key (section.key, or table[N].key such as sphere[2].density;
 // table.N.key is read the same way)
 // to v in data, a copy of which it returns: as a whole number where the
-// base case has one there.
+// base case has one there, or where the schema takes one.
 func (s *Sweep) apply(data map[string]any, key string, v float64) (map[string]any, error) {
 	parts := strings.Split(key, ".")
 	if len(parts) == 2 { // sphere[2].density, the notation of the case errors
@@ -333,7 +333,7 @@ func (s *Sweep) apply(data map[string]any, key string, v float64) (map[string]an
 		}
 		table[name] = int64(v)
 	case nil, float64:
-		if old == nil && v == math.Trunc(v) && intKey(name) {
+		if k := caseSchema.at(parts[0], name); old == nil && v == math.Trunc(v) && k != nil && k.whole() {
 			table[name] = int64(v)
 		} else {
 			table[name] = v
@@ -357,15 +357,6 @@ func (s *Sweep) apply(data map[string]any, key string, v float64) (map[string]an
 		}
 	}
 	return data, nil
-}
-
-// intKey reports whether a case key takes whole numbers.
-func intKey(name string) bool {
-	switch name {
-	case "cells_per_radius", "periods", "samples_per_period", "snapshots_per_period", "snapshot_periods", "average_periods":
-		return true
-	}
-	return false
 }
 
 // cloneTOML deep-copies decoded TOML data.
