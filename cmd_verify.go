@@ -11,7 +11,8 @@ import (
 	"axiswim/output"
 )
 
-// errVerifyFailed marks a verification run with at least one FAIL row.
+// errVerifyFailed marks a verification run with at least one failing
+// check (information rows and known disagreements never fail a run).
 var errVerifyFailed = errors.New("verification failed")
 
 func cmdVerify(args []string, stdout, stderr io.Writer) error {
@@ -54,7 +55,7 @@ func cmdVerify(args []string, stdout, stderr io.Writer) error {
 	}
 	start := time.Now()
 	header := true
-	fails, total := 0, 0
+	var tally verify.Tally
 	prog := output.NewProgress(stderr, *quiet, int64(len(checks)), "checks", "verify")
 	done := 0
 	if *single {
@@ -69,20 +70,15 @@ func cmdVerify(args []string, stdout, stderr io.Writer) error {
 		} else {
 			verify.WriteRows(stdout, rows)
 		}
-		for _, r := range rows {
-			total++
-			if !r.Pass {
-				fails++
-			}
-		}
+		tally.Add(rows)
 	})
 	prog.Done()
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(stdout, "\n%d passed, %d failed (%.0f s)\n", total-fails, fails, time.Since(start).Seconds())
-	if fails > 0 {
-		return fmt.Errorf("%w: %d of %d rows", errVerifyFailed, fails, total)
+	fmt.Fprintf(stdout, "\n%s (%.0f s)\n", tally, time.Since(start).Seconds())
+	if tally.Failed > 0 {
+		return fmt.Errorf("%w: %d of %d checks", errVerifyFailed, tally.Failed, tally.Passed+tally.Failed)
 	}
 	return nil
 }

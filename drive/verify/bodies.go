@@ -85,17 +85,18 @@ func checkFreeSphere(o Options) ([]Row, error) {
 	// e^{+i omega t} amplitudes are the complex conjugates of CHECKS.md's.
 	want := cmplx.Conj(FreeSphereResponse(s, x) - 1)
 	cs := fmt.Sprintf("free sphere s=%g a/delta=%g", s, x)
-	src := "unsteady Stokes response, CHECKS.md 4c; tol 3% / 3 deg (issue 4), lambda = 0.2"
+	src := "unsteady Stokes response, CHECKS.md 4c; lambda = 0.2"
 	rows := []Row{
-		relRow(cs, "relative amplitude / A", cmplx.Abs(ratio), cmplx.Abs(want), 0.03, src),
-		absRow(cs, "relative phase vs drive (deg)", phaseDeg(ratio, 1), phaseDeg(want, 1), 3, "deg", src),
+		withinRel(cs, "relative amplitude / A", cmplx.Abs(ratio), cmplx.Abs(want), 0.03, src, "issue 4: 3%"),
+		within(cs, "relative phase vs drive (deg)", phaseDeg(ratio, 1), phaseDeg(want, 1), 3, "deg", src, "issue 4: 3 deg"),
 	}
 	_, vmax, err := sphereResponse(freeSphereCase(1, x), o)
 	if err != nil {
 		return nil, err
 	}
-	rows = append(rows, boundRow("free sphere s=1", "max relative speed / (A omega)", vmax, 1e-6,
-		"a neutrally buoyant sphere follows the liquid (CHECKS.md 4c, exact)"))
+	rows = append(rows, atMost("free sphere s=1", "max relative speed / (A omega)", vmax, 1e-6,
+		"a neutrally buoyant sphere follows the liquid (CHECKS.md 4c, exact)",
+		"CHECKS.md 9: s = 1 exact, as 1e-6 of A omega (the shaken cell's rest tolerance, CHECKS.md 2d)"))
 	return rows, nil
 }
 
@@ -163,12 +164,6 @@ func lightRun(s float64, coupling string, o Options) (ok bool, vmax, zeta, vol f
 // criterion is a lower bound.) The virtual-mass scheme, whose mass m + m_V
 // puts zeta/(m + m_V) far below 2, runs at 0.5 and at 0.1.
 func checkLightSphere(o Options) ([]Row, error) {
-	b2f := func(b bool) float64 {
-		if b {
-			return 1
-		}
-		return 0
-	}
 	src := "virtual mass (Schwarz, Kempe & Froehlich 2015); explicit threshold zeta/m = 2 (Ladd & Verberg 2001)"
 	var rows []Row
 	okVM, vmax, zeta, vol, err := lightRun(0.5, cases.CouplingVirtualMass, o)
@@ -179,9 +174,10 @@ func checkLightSphere(o Options) ([]Row, error) {
 	// rise; the oscillation adds at most about A omega.
 	bound := 2*500*9.81*1e-6/(9*0.05) + 0.2e-3*2*math.Pi*10
 	rows = append(rows,
-		Row{Case: "light sphere s=0.5", Quantity: "virtual mass: run completes (1 = yes)", Computed: b2f(okVM),
-			Reference: 1, Error: 1 - b2f(okVM), Unit: "abs", Source: src, Pass: okVM},
-		boundRow("light sphere s=0.5", "virtual mass: max |v| / (Stokes rise + A omega)", vmax/bound, 1.2, src))
+		within("light sphere s=0.5", "virtual mass: run completes (1 = yes)", yes(okVM), 1, 0, "yes", src,
+			"the run must complete"),
+		atMost("light sphere s=0.5", "virtual mass: max |v| / (Stokes rise + A omega)", vmax/bound, 1.2, src,
+			"ours: a 20% margin on that upper estimate"))
 	sStar := zeta / (2 * vol)
 	for _, c := range []struct {
 		s        float64
@@ -200,10 +196,9 @@ func checkLightSphere(o Options) ([]Row, error) {
 		if !c.want {
 			verb = "fails"
 		}
-		rows = append(rows, Row{Case: fmt.Sprintf("light sphere s=%.3g", c.s),
-			Quantity: fmt.Sprintf("%s: run %s (1 = yes; s* = %.3g)", c.coupling, verb, sStar),
-			Computed: b2f(ok == c.want), Reference: 1, Error: 1 - b2f(ok == c.want), Unit: "abs",
-			Source: src, Pass: ok == c.want})
+		rows = append(rows, within(fmt.Sprintf("light sphere s=%.3g", c.s),
+			fmt.Sprintf("%s: run %s (1 = yes; s* = %.3g)", c.coupling, verb, sStar),
+			yes(ok == c.want), 1, 0, "yes", src, "the outcome the threshold predicts, exactly"))
 	}
 	return rows, nil
 }

@@ -134,9 +134,10 @@ func pairBounce(c *cases.Case, o Options) (impact, rebound, st float64, err erro
 // its explanation; README, Contacts). The coefficient e = rebound speed /
 // impact speed must be below 1 (a passive contact cannot return more
 // energy than it received: the repulsion is conservative and the liquid
-// dissipates) and rise with St (as in experiments). The values are set
-// beside the experiments, where spheres do not rebound below St of about
-// 10 (Joseph, Zenit, Hunt & Rosenwinkel 2001, J. Fluid Mech. 433, 329;
+// dissipates) and rise with St (as in experiments): those are checks. The
+// values set beside the experiments, where spheres do not rebound below St
+// of about 10, are known disagreements (printed KNOWN, never a pass, until
+// the contact physics is fixed; Joseph, Zenit, Hunt & Rosenwinkel 2001, J. Fluid Mech. 433, 329;
 // Gondret, Lance & Petit 2002, Phys. Fluids 14, 643: from memory, not
 // checked against the papers): measured e = 0.54 at St = 4.2 and 0.18 at
 // St = 0.72, so contacts here are too elastic at moderate St (the
@@ -158,7 +159,6 @@ func checkContact(o Options) ([]Row, error) {
 		}
 		e[i], st[i] = r/u, s
 	}
-	rises := e[1] < e[0]
 	u, r, stPair, err := pairBounce(pairCase(4, 0.15), o)
 	if err != nil {
 		return nil, fmt.Errorf("sphere pair: %w", err)
@@ -167,20 +167,23 @@ func checkContact(o Options) ([]Row, error) {
 		return nil, fmt.Errorf("sphere pair: the spheres did not approach")
 	}
 	ePair := r / u
-	src := "experiments: no rebound below St ~ 10 (Joseph et al. 2001; Gondret et al. 2002; from memory): too elastic"
+	const (
+		passive = "passive contact: e < 1 (the repulsion is conservative, the liquid dissipates)"
+		reason  = "too elastic: the lubrication film below a cell is unresolved and the repulsion conserves the energy the real film dissipates"
+		wallSrc = "experiments: no rebound below St ~ 10 (Joseph, Zenit, Hunt & Rosenwinkel 2001, J. Fluid Mech. 433, 329; Gondret, Lance & Petit 2002, Phys. Fluids 14, 643; from memory)"
+		pairSrc = "experiments: no rebound below St ~ 10 (Yang & Hunt 2006, J. Fluid Mech. 559, 43; from memory)"
+	)
 	rows := []Row{
-		boundRow("contact with end wall", fmt.Sprintf("restitution e, St = %.2g", st[0]), e[0], 1, "passive contact: e < 1"),
-		{Case: "contact with end wall", Quantity: fmt.Sprintf("restitution e, St = %.2g", st[1]), Computed: e[1], Error: e[1],
-			Tolerance: e[0], Unit: "bound", Source: "e rises with St (smaller than at the larger St)", Pass: rises},
+		atMost("contact with end wall", fmt.Sprintf("restitution e, St = %.2g", st[0]), e[0], 1, passive, "physics: e <= 1"),
+		atMost("contact with end wall", fmt.Sprintf("restitution e, St = %.2g", st[1]), e[1], e[0],
+			"e rises with St (as in experiments)", fmt.Sprintf("monotone: at most e at St = %.2g", st[0])),
 	}
 	for i := range e {
-		rows = append(rows, Row{Case: "contact with end wall", Quantity: fmt.Sprintf("e against experiment, St = %.2g", st[i]),
-			Computed: e[i], Error: e[i], Tolerance: math.Inf(1), Unit: "info", Source: src, Pass: e[0] < 1 && rises})
+		rows = append(rows, disagreement("contact with end wall", fmt.Sprintf("e against experiment, St = %.2g", st[i]),
+			e[i], 0, "abs", reason, wallSrc))
 	}
 	rows = append(rows,
-		boundRow("contact of two spheres", fmt.Sprintf("restitution e, St = %.2g", stPair), ePair, 1, "passive contact: e < 1"),
-		Row{Case: "contact of two spheres", Quantity: fmt.Sprintf("e against experiment, St = %.2g", stPair),
-			Computed: ePair, Error: ePair, Tolerance: math.Inf(1), Unit: "info", Pass: ePair < 1,
-			Source: "experiments: no rebound below St ~ 10 (Yang & Hunt 2006, J. Fluid Mech. 559, 43; from memory): too elastic"})
+		atMost("contact of two spheres", fmt.Sprintf("restitution e, St = %.2g", stPair), ePair, 1, passive, "physics: e <= 1"),
+		disagreement("contact of two spheres", fmt.Sprintf("e against experiment, St = %.2g", stPair), ePair, 0, "abs", reason, pairSrc))
 	return rows, nil
 }

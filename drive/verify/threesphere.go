@@ -84,6 +84,11 @@ func threeSphereReference(c *cases.Case) (lead, chain float64, err error) {
 // gaSource is the source of the three-sphere rows.
 const gaSource = "V = K d1 d2 omega sin(phi1-phi2), K = (a/6)(1/L1^2+1/L2^2-1/(L1+L2)^2) (Golestanian & Ajdari 2008; K derived, model.ThreeSphereSpeed)"
 
+// tolGA is where the tolerance against the leading order comes from,
+// chosen with the rows: the chain model alone is 6.4% above it at
+// a/L = d/L = 0.1.
+const tolGA = "ours: 15%, room for the leading order's neglect of a/L and d/L (the chain model is 6.4% above it)"
+
 // checkThreeSphere: the quick row of issue 9 at 5 cells per radius in a
 // container 2.5 arm lengths in radius (5 across), with tau = 3.5 (the
 // speed is 2% below the tau = 1 one there; see threeSphereCase): the
@@ -111,9 +116,11 @@ func checkThreeSphere(o Options) ([]Row, error) {
 		}
 	}
 	return []Row{
-		relRow("three-sphere a/L=0.1", "speed, lag -90 deg, R = 2.5 L (m/s)", u[0], lead, 0.15, gaSource),
-		relRow("three-sphere a/L=0.1", "speed, lag +90 deg (m/s)", u[1], -u[0], 0.01, "equal and opposite: mirror image of the stroke"),
-		boundRow("three-sphere a/L=0.1", "in phase: |displacement| / lagged", math.Abs(u[2]/u[0]), 0.02, "reciprocal stroke does not swim (Purcell 1977)"),
+		withinRel("three-sphere a/L=0.1", "speed, lag -90 deg, R = 2.5 L (m/s)", u[0], lead, 0.15, gaSource, tolGA),
+		withinRel("three-sphere a/L=0.1", "speed, lag +90 deg (m/s)", u[1], -u[0], 0.01, "equal and opposite: mirror image of the stroke",
+			"ours: 1%, the other errors of the row cancel in the mirror image"),
+		atMost("three-sphere a/L=0.1", "in phase: |displacement| / lagged", math.Abs(u[2]/u[0]), 0.02, "reciprocal stroke does not swim (Purcell 1977)",
+			"ours: 2% of the lagged displacement, a ceiling (zero by the mirror symmetry of the stroke)"),
 	}, nil
 }
 
@@ -140,15 +147,18 @@ func checkThreeSphereContainer(o Options) ([]Row, error) {
 		if err != nil {
 			return nil, fmt.Errorf("R = %g L: %w", k, err)
 		}
-		r := relRow("three-sphere container", fmt.Sprintf("speed, R = %g L (m/s)", k), u, lead, 0.15, gaSource)
+		qty := fmt.Sprintf("speed, R = %g L (m/s)", k)
 		if k < 5 {
-			r.Unit, r.Tolerance, r.Pass, r.Source = "info", math.Inf(1), true, "the trend: smaller than 10 arm lengths across; "+gaSource
+			// the trend only: the container is smaller than 10 arm lengths across
+			rows = append(rows, info("three-sphere container", qty, u, lead,
+				"the trend: smaller than 10 arm lengths across; against "+gaSource))
+		} else {
+			rows = append(rows, withinRel("three-sphere container", qty, u, lead, 0.15, gaSource, tolGA))
 		}
-		rows = append(rows, r)
 		last, chainLast = u, chain
 	}
-	rows = append(rows, relRow("three-sphere container", "speed, R = 10 L, against chain model", last, chainLast, 0.05,
-		"Rotne-Prager point forces, unbounded (model.StokesChain; Rotne & Prager 1969)"))
+	rows = append(rows, withinRel("three-sphere container", "speed, R = 10 L, against chain model", last, chainLast, 0.05,
+		"Rotne-Prager point forces, unbounded (model.StokesChain; Rotne & Prager 1969)", "ours: 5%"))
 	return rows, nil
 }
 
@@ -177,16 +187,15 @@ func checkThreeSphereResolution(o Options) ([]Row, error) {
 			return nil, fmt.Errorf("%d cells per radius: %w", n, err)
 		}
 	}
-	rises := u[0] < u[1] && u[1] < u[2]
-	var rows []Row
-	for i, n := range cells {
-		r := relRow("three-sphere resolution", fmt.Sprintf("speed, %d cells per radius (m/s)", n), u[i], chain, math.Inf(1),
-			"rises toward the chain model (model.StokesChain)")
-		r.Unit, r.Pass = "info", rises
-		rows = append(rows, r)
+	const rise = "rises toward the chain model (model.StokesChain)"
+	rows := []Row{info("three-sphere resolution", fmt.Sprintf("speed, %d cells per radius (m/s)", cells[0]), u[0], chain,
+		"the coarsest; the chain model in the reference column")}
+	for i := 1; i < len(cells); i++ {
+		rows = append(rows, atLeast("three-sphere resolution", fmt.Sprintf("speed, %d cells per radius (m/s)", cells[i]), u[i], u[i-1],
+			rise, fmt.Sprintf("monotone: at least the speed at %d cells", cells[i-1])))
 	}
 	h6, h8 := 1/6.0, 1/8.0
 	extra := u[2] + (u[2]-u[1])*h8*h8/(h6*h6-h8*h8)
-	return append(rows, relRow("three-sphere resolution", "Richardson (6, 8 cells, 2nd order) (m/s)", extra, chain, 0.03,
-		"Rotne-Prager chain model (model.StokesChain); omega L^2/nu = 1 alone takes 0.8%")), nil
+	return append(rows, withinRel("three-sphere resolution", "Richardson (6, 8 cells, 2nd order) (m/s)", extra, chain, 0.03,
+		"Rotne-Prager chain model (model.StokesChain); omega L^2/nu = 1 alone takes 0.8%", "ours: 3%")), nil
 }

@@ -1,6 +1,7 @@
 package verify
 
 import (
+	"fmt"
 	"math"
 	"math/cmplx"
 	"os"
@@ -58,7 +59,11 @@ func TestReferenceStartup(t *testing.T) {
 	}
 }
 
-// TestChecks runs every quick verification case; each row must pass.
+// TestChecks runs every quick verification case: each check must pass and
+// say where its tolerance comes from; each known disagreement must still
+// be computed and reported (a finite value and error against a finite
+// reference, with its reason and source) and never pass; information rows
+// never pass.
 func TestChecks(t *testing.T) {
 	for _, c := range Checks() {
 		if c.Full {
@@ -73,9 +78,11 @@ func TestChecks(t *testing.T) {
 				t.Fatal("no rows")
 			}
 			for _, r := range rows {
-				if !r.Pass {
-					t.Errorf("%s: %s = %g, reference %g, error %g > tolerance %g (%s)",
-						r.Case, r.Quantity, r.Computed, r.Reference, r.Error, r.Tolerance, r.Source)
+				if err := rowComplete(r); err != nil {
+					t.Error(err)
+				}
+				if r.Failed() {
+					t.Errorf("FAIL %s", r.Describe())
 				}
 			}
 			if testing.Verbose() {
@@ -83,6 +90,42 @@ func TestChecks(t *testing.T) {
 			}
 		})
 	}
+}
+
+// rowComplete returns an error when r is not a complete row of its kind:
+// a check with its tolerance's origin, information that passes, or a
+// known disagreement whose comparison was not made or not explained.
+func rowComplete(r Row) error {
+	switch r.Kind {
+	case KindCheck:
+		if r.TolFrom == "" || r.Source == "" {
+			return fmt.Errorf("check %s: no source or no origin of the tolerance", r.Describe())
+		}
+		var verdict bool
+		switch r.Compare {
+		case AtMost:
+			verdict = r.Computed <= r.Tolerance
+		case AtLeast:
+			verdict = r.Computed >= r.Tolerance
+		default:
+			verdict = r.Error <= r.Tolerance
+		}
+		if verdict != r.Pass || math.IsInf(r.Tolerance, 0) || math.IsNaN(r.Tolerance) {
+			return fmt.Errorf("check %s: verdict %v not the one its value and tolerance give", r.Describe(), r.Pass)
+		}
+	case KindInfo:
+		if r.Pass {
+			return fmt.Errorf("information row %s passes", r.Describe())
+		}
+	case KindDisagreement:
+		finite := func(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
+		if r.Pass || !finite(r.Computed) || !finite(r.Reference) || !finite(r.Error) || r.Reason == "" || r.Source == "" {
+			return fmt.Errorf("known disagreement %s: not computed and reported (value, reference, error, reason, source), or passes", r.Describe())
+		}
+	default:
+		return fmt.Errorf("row %s: unknown kind %v", r.Describe(), r.Kind)
+	}
+	return nil
 }
 
 // TestChecksFloat32 runs a cheap selection of the quick checks with float32
@@ -105,9 +148,8 @@ func TestChecksFloat32(t *testing.T) {
 				t.Fatal(err)
 			}
 			for _, r := range rows {
-				if !r.Pass {
-					t.Errorf("float32: %s: %s = %g, reference %g, error %g > tolerance %g (%s)",
-						r.Case, r.Quantity, r.Computed, r.Reference, r.Error, r.Tolerance, r.Source)
+				if r.Failed() {
+					t.Errorf("float32: FAIL %s", r.Describe())
 				}
 			}
 		})
