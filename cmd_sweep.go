@@ -151,8 +151,8 @@ func loadSweepDir(dir string) (*cases.Sweep, error) {
 func pointLine(s *cases.Sweep, r study.SweepResult) string {
 	line := fmt.Sprintf("  %3d  %-40s", r.Index+1, s.Label(r.Point))
 	switch sum := r.Summary; {
-	case r.Err != "":
-		line += "  " + r.Err
+	case r.Err != nil:
+		line += "  " + r.Err.Error()
 	case sum != nil && sum.MeanVelocity != nil && sum.MeanVelocityUncertainty != nil:
 		line += fmt.Sprintf("  %10.4g +- %.2g m/s", *sum.MeanVelocity, *sum.MeanVelocityUncertainty)
 	default:
@@ -185,11 +185,11 @@ func sweepPoint(dir string, n, threads int, quiet bool, stdout, stderr io.Writer
 	}
 	fmt.Fprintln(stdout, pointLine(s, r))
 	switch {
-	case r.Err != "" && ctx.Err() != nil:
+	case r.Err != nil && ctx.Err() != nil:
 		fmt.Fprintf(stderr, "stopped at a checkpoint; continue with: axiswim sweep -point %d %s (or submit its array task again)\n", n, dir)
 		return fmt.Errorf("%w: point %d", errStopped, n)
-	case r.Err != "":
-		return fmt.Errorf("point %d: %s", n, r.Err)
+	case r.Err != nil:
+		return fmt.Errorf("point %d: %w", n, r.Err)
 	}
 	return nil
 }

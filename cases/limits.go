@@ -24,8 +24,9 @@ func (c *Case) driveSpeed() float64 {
 	return u
 }
 
-// armFrequency is the frequency of arm a after defaulting (Hz).
-func (c *Case) armFrequency(a Arm) float64 {
+// ArmFrequency is the stroke frequency of arm a after defaulting (Hz):
+// its own, or the shaking frequency.
+func (c *Case) ArmFrequency(a Arm) float64 {
 	if a.Frequency == 0 {
 		return c.Shaking.Frequency
 	}
@@ -34,7 +35,7 @@ func (c *Case) armFrequency(a Arm) float64 {
 
 // strokeSpeed is the velocity amplitude 2π f A of the stroke of arm a.
 func (c *Case) strokeSpeed(a Arm) float64 {
-	return 2 * math.Pi * c.armFrequency(a) * a.Amplitude
+	return 2 * math.Pi * c.ArmFrequency(a) * a.Amplitude
 }
 
 // maxForcingOmega is the highest angular frequency of the forcing: the
@@ -49,7 +50,7 @@ func (c *Case) maxForcingOmega() float64 {
 		}
 	}
 	for _, a := range c.Arms {
-		f = math.Max(f, c.armFrequency(a))
+		f = math.Max(f, c.ArmFrequency(a))
 	}
 	return 2 * math.Pi * f
 }

@@ -5,26 +5,18 @@ import (
 	"os"
 	"strconv"
 	"strings"
-)
 
-// Bytes per lattice node: two sets of nine populations (float64, or
-// float32 with solver.precision = "float32") plus about ten float64 fields
-// (density, velocity, forces, flags and the like).
-const (
-	bytesPerNode       = (2*9 + 10) * 8
-	bytesPerNodeSingle = 2*9*4 + 10*8
+	"axiswim/lbm"
 )
 
 // fallbackMemoryLimit is used when /proc/meminfo cannot be read.
 const fallbackMemoryLimit = 16 << 30
 
 // memoryBytes estimates the memory of an nz x nr grid with one ghost layer
-// on each side.
+// on each side,
+// with the bytes per node of lbm.BytesPerNode.
 func memoryBytes(nz, nr float64, single bool) float64 {
-	if single {
-		return bytesPerNodeSingle * (nz + 2) * (nr + 2)
-	}
-	return bytesPerNode * (nz + 2) * (nr + 2)
+	return float64(lbm.BytesPerNode(single)) * (nz + 2) * (nr + 2)
 }
 
 // MemoryBytes is the estimated memory of the lattice, in bytes.

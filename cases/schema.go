@@ -323,7 +323,7 @@ func (c *Case) FillDefaults() {
 	}
 	if c.Run.SamplesPerPeriod == 0 && c.Run.SampleInterval == 0 {
 		switch {
-		case c.periodFrequency() > 0:
+		case c.PeriodFrequency() > 0:
 			c.Run.SamplesPerPeriod = DefaultSamplesPerPeriod
 		case c.Run.Duration > 0:
 			c.Run.SampleInterval = c.Run.Duration / DefaultSamplesPerDuration
@@ -340,10 +340,10 @@ func (c *Case) FillDefaults() {
 	}
 }
 
-// periodFrequency is the frequency (Hz) whose periods count the run: the
+// PeriodFrequency is the frequency (Hz) whose periods count the run: the
 // shaking frequency, or without shaking the lowest positive arm frequency
 // (the slowest stroke); 0 when nothing is periodic.
-func (c *Case) periodFrequency() float64 {
+func (c *Case) PeriodFrequency() float64 {
 	if c.Shaking.Frequency > 0 {
 		return c.Shaking.Frequency
 	}

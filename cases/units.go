@@ -168,7 +168,7 @@ func Resolve(c *Case) (*Lattice, error) {
 		Nr:      int(g.nr),
 		Density: c.Fluid.Density,
 		Nu:      nu,
-		Omega:   2 * math.Pi * c.periodFrequency(),
+		Omega:   2 * math.Pi * c.PeriodFrequency(),
 	}
 	l.OmegaMax = c.maxForcingOmega()
 	l.Length = float64(l.Nz) * l.Dx
@@ -203,7 +203,7 @@ func Resolve(c *Case) (*Lattice, error) {
 
 	var period float64
 	if l.Omega > 0 {
-		period = 1 / c.periodFrequency()
+		period = 1 / c.PeriodFrequency()
 	}
 	if c.Grid.Tau == 0 {
 		l.Bound = bound

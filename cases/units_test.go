@@ -152,7 +152,7 @@ func TestResolveLimits(t *testing.T) {
 		if l.Radius != float64(l.Nr)*l.Dx || l.Length != float64(l.Nz)*l.Dx {
 			t.Errorf("%s: effective size %g x %g, want Nz Dx x Nr Dx", name, l.Length, l.Radius)
 		}
-		if f := periodFrequency(c); f > 0 {
+		if f := c.PeriodFrequency(); f > 0 {
 			T := 1 / f
 			if !within(float64(l.StepsPerPeriod)*l.Dt, T, 1e-12) {
 				t.Errorf("%s: %d steps of %g s = %g s, want the period %g s", name, l.StepsPerPeriod, l.Dt, float64(l.StepsPerPeriod)*l.Dt, T)
@@ -348,17 +348,3 @@ func TestConversions(t *testing.T) {
 	}
 }
 
-// periodFrequency is the frequency that sets a case's period: the drive's,
-// or without shaking the slowest arm's.
-func periodFrequency(c *Case) float64 {
-	if c.Shaking.Frequency > 0 {
-		return c.Shaking.Frequency
-	}
-	f := 0.0
-	for _, a := range c.Arms {
-		if f == 0 || a.Frequency < f {
-			f = a.Frequency
-		}
-	}
-	return f
-}

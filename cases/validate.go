@@ -158,7 +158,7 @@ func (c *Case) validateShaking(v *validator) {
 			"give shaking.frequency in Hz, or set the amplitude to 0")
 	}
 	if v.nonNegative("shaking.ramp_periods", s.RampPeriods, "give a number of periods, e.g. 2, or 0 for no ramp") &&
-		c.periodFrequency() > 0 && c.Run.Periods > 0 && s.RampPeriods > float64(c.Run.Periods) {
+		c.PeriodFrequency() > 0 && c.Run.Periods > 0 && s.RampPeriods > float64(c.Run.Periods) {
 		v.add("shaking.ramp_periods", s.RampPeriods,
 			fmt.Sprintf("the ramp is longer than the run (run.periods = %d)", c.Run.Periods),
 			"shorten the ramp or run more periods")
@@ -461,11 +461,11 @@ func (c *Case) validateSolver(v *validator) {
 
 func (c *Case) validateRun(v *validator) {
 	r := c.Run
-	if c.periodFrequency() > 0 {
+	if c.PeriodFrequency() > 0 {
 		why := "required when shaking.frequency > 0"
 		if c.Shaking.Frequency == 0 {
 			why = fmt.Sprintf("required when an arm strokes (the run counts periods of the slowest stroke, %g Hz)",
-				c.periodFrequency())
+				c.PeriodFrequency())
 		}
 		switch {
 		case r.Periods == 0:

@@ -163,15 +163,8 @@ func (d *Dynamics) Init() error {
 	return nil
 }
 
-// Forces returns the spring, dashpot-free and repulsion forces on every
-// body at the positions Z (used for the right-hand side and for energy).
-func (d *Dynamics) Forces(z []float64) []float64 {
-	f := make([]float64, len(z))
-	d.forces(f, z)
-	return f
-}
-
-// forces stores the forces of Forces in f (len(z) values).
+// forces stores in f (len(z) values) the spring and repulsion forces on
+// every body at the positions z, without the dashpots.
 func (d *Dynamics) forces(f, z []float64) {
 	clear(f)
 	for _, s := range d.Springs {

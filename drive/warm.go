@@ -27,10 +27,6 @@ func RampPeriods(c *cases.Case) int {
 	return int(math.Ceil(2 * c.Shaking.RampPeriods))
 }
 
-// Warm reports whether the simulation started from another run's final
-// state.
-func (s *Simulation) Warm() bool { return s.warm }
-
 // StartWarm starts the simulation (fresh from its case) from st, the
 // final state of a run of case c whose lattice agrees (SameLattice): the
 // populations, the spheres' positions, velocities and node bookkeeping,

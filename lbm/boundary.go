@@ -104,9 +104,6 @@ func (s *Solver) SetBoundary(id int, links []Link, vz float64) error {
 	return nil
 }
 
-// SetWallVelocity changes the wall velocity of body id for the next Step.
-func (s *Solver) SetWallVelocity(id int, vz float64) { s.bodies[id].vz = vz }
-
 // BoundaryForce returns the axial force the fluid exerted on body id
 // during the last Step, by Galilean-invariant momentum exchange with every
 // link weighted by its ring 2 pi r_mid (lattice units: multiply by

@@ -206,6 +206,3 @@ func (s *Solver) State() [Q][]float64 {
 	return c
 }
 
-// Pressure returns the lattice pressure deviation p - p0 = cs2 (rho - 1) at
-// index o (multiply by rho_f (dx/dt)^2 for pascals).
-func (f *Fields) Pressure(o int) float64 { return Cs2 * (f.Rho[o] - 1) }

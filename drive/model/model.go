@@ -128,7 +128,7 @@ func Linear(c *cases.Case) (*Result, error) {
 	if n == 0 {
 		return nil, errors.New("model: the case has no sphere; the model describes spheres (add a [[sphere]])")
 	}
-	f := modelFrequency(c)
+	f := c.PeriodFrequency()
 	if f == 0 {
 		return nil, errors.New("model: nothing oscillates: give shaking.frequency > 0 (and shaking.amplitude), or an [[arm]] with a stroke")
 	}
@@ -186,7 +186,7 @@ func Linear(c *cases.Case) (*Result, error) {
 		// Extension sg (X_j - X_i) = E.
 		m[row][j] = sc * sg
 		m[row][i] = -sc * sg
-		if fa := modelArmFrequency(c, arm); math.Abs(fa-f) <= modelSameFrequency*f {
+		if fa := c.ArmFrequency(arm); math.Abs(fa-f) <= modelSameFrequency*f {
 			rhs[row] = sc * cmplx.Rect(arm.Amplitude, arm.Phase*math.Pi/180)
 		} else {
 			offFrequency = append(offFrequency, fmt.Sprintf("arm[%d] (%g Hz)", a+1, fa))
@@ -256,31 +256,6 @@ func Linear(c *cases.Case) (*Result, error) {
 func modelImpedance(mu, a, delta float64) complex128 {
 	x := a / delta
 	return complex(-6*math.Pi*mu*a, 0) * complex(1+x, x+2*x*x/9)
-}
-
-// modelFrequency is the frequency of the model, Hz: the shaking frequency,
-// or without shaking the slowest arm stroke (the run's period, as in
-// cases.Resolve); 0 if nothing oscillates.
-func modelFrequency(c *cases.Case) float64 {
-	if c.Shaking.Frequency > 0 {
-		return c.Shaking.Frequency
-	}
-	f := 0.0
-	for _, a := range c.Arms {
-		if fa := modelArmFrequency(c, a); fa > 0 && (f == 0 || fa < f) {
-			f = fa
-		}
-	}
-	return f
-}
-
-// modelArmFrequency is the stroke frequency of arm a, with its default, the
-// shaking frequency.
-func modelArmFrequency(c *cases.Case, a cases.Arm) float64 {
-	if a.Frequency == 0 {
-		return c.Shaking.Frequency
-	}
-	return a.Frequency
 }
 
 // modelOrientation is +1 if the second sphere of the pair starts above the

@@ -83,9 +83,9 @@ func StokesChain(c *cases.Case) ([]StokesSwimmer, error) {
 	if len(c.Springs) > 0 {
 		return nil, errors.New("the case has springs: their spheres respond dynamically, which the chain model does not follow")
 	}
-	f := modelArmFrequency(c, c.Arms[0])
+	f := c.ArmFrequency(c.Arms[0])
 	for _, a := range c.Arms[1:] {
-		if fa := modelArmFrequency(c, a); math.Abs(fa-f) > modelSameFrequency*f {
+		if fa := c.ArmFrequency(a); math.Abs(fa-f) > modelSameFrequency*f {
 			return nil, fmt.Errorf("the arms stroke at different frequencies (%g and %g Hz): the stroke has no common period", f, fa)
 		}
 	}

@@ -3,6 +3,8 @@ package record
 import (
 	"fmt"
 	"math"
+
+	"gonum.org/v1/gonum/stat"
 )
 
 // Speed is the mean swimming speed estimated from the stroboscopic centroid
@@ -59,23 +61,18 @@ func SwimmingSpeed(c []float64, T float64, skip int) Speed {
 	return s
 }
 
-// meanSE returns the mean and its standard error.
+// meanSE returns the mean and its standard error s/sqrt(N), s the
+// sample standard deviation (gonum's stat.MeanStdDev, with its corrected
+// two-pass sum).
 func meanSE(x []float64) (mean, se float64) {
-	if len(x) == 0 {
+	switch len(x) {
+	case 0:
 		return 0, 0
+	case 1:
+		return x[0], 0
 	}
-	for _, v := range x {
-		mean += v
-	}
-	mean /= float64(len(x))
-	if len(x) < 2 {
-		return mean, 0
-	}
-	var ss float64
-	for _, v := range x {
-		ss += (v - mean) * (v - mean)
-	}
-	return mean, math.Sqrt(ss/float64(len(x)-1)) / math.Sqrt(float64(len(x)))
+	mean, sd := stat.MeanStdDev(x, nil)
+	return mean, stat.StdErr(sd, float64(len(x)))
 }
 
 // analysisStart is the first period (0-based) of the window over which the

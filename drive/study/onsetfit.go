@@ -6,6 +6,7 @@ import (
 	"slices"
 	"strings"
 
+	"gonum.org/v1/gonum/stat"
 	"gonum.org/v1/gonum/stat/distuv"
 )
 
@@ -100,21 +101,17 @@ func FitOnset(r *Onset) {
 	}
 }
 
-// line fits y = a + b x by weighted least squares and returns a, b, the
-// standard error of b and chi-square.
+// line fits y = a + b x by weighted least squares (gonum's
+// stat.LinearRegression) and returns a, b, the standard error of b,
+// 1/sqrt(sum w (x - mean x)^2) for weights w = 1/sigma^2, and chi-square.
 func line(x, y, w []float64) (a, b, bErr, chi2 float64) {
-	var sw, sx, sy, sxx, sxy float64
+	a, b = stat.LinearRegression(x, y, w, false)
+	mx := stat.Mean(x, w)
+	var sxx float64
 	for i := range x {
-		sw += w[i]
-		sx += w[i] * x[i]
-		sy += w[i] * y[i]
-		sxx += w[i] * x[i] * x[i]
-		sxy += w[i] * x[i] * y[i]
+		sxx += w[i] * (x[i] - mx) * (x[i] - mx)
 	}
-	d := sw*sxx - sx*sx
-	b = (sw*sxy - sx*sy) / d
-	a = (sy - b*sx) / sw
-	bErr = math.Sqrt(sw / d)
+	bErr = 1 / math.Sqrt(sxx)
 	for i := range x {
 		r := y[i] - a - b*x[i]
 		chi2 += w[i] * r * r

@@ -146,28 +146,20 @@ func RunOnset(ctx context.Context, search OnsetSearch, base []byte, o OnsetRunOp
 		jobs := min(max(search.Jobs, 1), len(values))
 		threads := max(1, cores/jobs)
 		pts := make([]OnsetPoint, len(values))
-		slot := make(chan struct{}, jobs)
-		var wg sync.WaitGroup
-		for i, v := range values {
-			wg.Add(1)
-			go func() {
-				defer wg.Done()
-				slot <- struct{}{}
-				defer func() { <-slot }()
-				from := ""
-				if search.Warm {
-					best := math.Inf(1)
-					for _, d := range done {
-						if dist := onsetDistance(v, d.v, search.Log); dist < best {
-							best, from = dist, d.dir
-						}
-					}
-				}
-				r := runPoint(ctx, s, first+i, cases.Point{v}, o.Out, threads, log, &mu, from, search.Warm)
-				pts[i] = onsetPoint(r)
-			}()
+		earlier := make([]int, len(done))
+		for k := range earlier {
+			earlier[k] = k
 		}
-		wg.Wait()
+		eachPoint(ctx, len(values), jobs, func(i int) {
+			v, from := values[i], ""
+			if search.Warm {
+				if k := nearest(earlier, func(k int) float64 { return onsetDistance(v, done[k].v, search.Log) }); k >= 0 {
+					from = done[k].dir
+				}
+			}
+			r := runPoint(ctx, s, first+i, cases.Point{v}, o.Out, threads, log, &mu, from, search.Warm)
+			pts[i] = onsetPoint(r)
+		})
 		if ctx.Err() != nil {
 			return nil, fmt.Errorf("onset search interrupted: %w", ctx.Err())
 		}
@@ -197,7 +189,10 @@ func onsetDistance(a, b float64, geometric bool) float64 {
 
 // onsetPoint reads a run's result into an OnsetPoint.
 func onsetPoint(r SweepResult) OnsetPoint {
-	p := OnsetPoint{Dir: r.Dir, Err: r.Err, Speed: math.NaN()}
+	p := OnsetPoint{Dir: r.Dir, Speed: math.NaN()}
+	if r.Err != nil {
+		p.Err = r.Err.Error() // the onset record is written to files
+	}
 	sum := r.Summary
 	switch {
 	case p.Err != "":

@@ -47,27 +47,35 @@ func (p PointState) String() string {
 // holds: its summary, when it has one that can be read, and for a failed
 // point why it failed. Running, resuming or skipping a point (RunSweep,
 // RunSweepPoint) and collecting a sweep (CollectSweep) all decide by it.
-func InspectPoint(dir string) (PointState, *run.Summary, string) {
+func InspectPoint(dir string) (PointState, *run.Summary, error) {
 	sum, err := ReadSummary(dir)
 	_, ckErr := os.Stat(filepath.Join(dir, run.CheckpointFile))
 	checkpoint := ckErr == nil
 	switch {
 	case err == nil && sum.Completed:
-		return PointDone, sum, ""
+		return PointDone, sum, nil
 	case err == nil && sum.Failure != "":
-		return PointFailed, sum, sum.Failure
+		// the run's error, as its summary wrote it
+		return PointFailed, sum, errors.New(sum.Failure)
 	case err != nil && !errors.Is(err, fs.ErrNotExist):
-		return PointFailed, nil, fmt.Sprintf("summary.json cannot be read (%v)", err)
+		return PointFailed, nil, fmt.Errorf("summary.json cannot be read (%w)", err)
 	case checkpoint:
-		return PointUnfinished, sum, ""
+		return PointUnfinished, sum, nil
 	}
 	// No summary (or one of an interrupted run whose checkpoint is gone)
 	// and no checkpoint.
 	if entries, err := os.ReadDir(dir); err == nil && len(entries) > 0 {
-		return PointPartial, sum, ""
+		return PointPartial, sum, nil
 	}
-	return PointNotRun, nil, ""
+	return PointNotRun, nil, nil
 }
+
+// What stands in the way of collecting a point that is not done.
+var (
+	errUnfinished = errors.New("unfinished (stopped at a checkpoint, or still running)")
+	errNoSummary  = errors.New("no summary (still running, or stopped before its first checkpoint)")
+	errNotRunYet  = errors.New("not run")
+)
 
 // CollectSweep gathers the points of the sweep s in out from their run
 // directories, as they are now, without running anything: the result of
@@ -88,15 +96,15 @@ func CollectSweep(s *cases.Sweep, out string) ([]SweepResult, []PointState) {
 		case PointFailed:
 			r.Err = why
 		case PointUnfinished:
-			r.Err = "unfinished (stopped at a checkpoint, or still running)"
+			r.Err = errUnfinished
 		case PointPartial:
-			r.Err = "no summary (still running, or stopped before its first checkpoint)"
+			r.Err = errNoSummary
 		case PointNotRun:
-			r.Err = "not run"
+			r.Err = errNotRunYet
 		}
 		if st == PointNotRun || st == PointPartial {
 			if err := pointCase(s, pt); err != nil {
-				st, r.Err = PointFailed, err.Error()
+				st, r.Err = PointFailed, err
 			}
 		}
 		results[i], states[i] = r, st

@@ -39,7 +39,7 @@ func TestCollectSweepStates(t *testing.T) {
 		}
 	}
 	for i, sub := range []string{"", "no summary", "unfinished", "by a guard: NaN", "cannot be read", "density"} {
-		if !strings.Contains(results[i].Err, sub) || (sub == "") != (results[i].Err == "") {
+		if msg := errText(results[i].Err); !strings.Contains(msg, sub) || (sub == "") != (results[i].Err == nil) {
 			t.Errorf("point %d: error %q, want one with %q", i+1, results[i].Err, sub)
 		}
 	}
@@ -76,7 +76,7 @@ func TestRunSweepPointAgain(t *testing.T) {
 	os.WriteFile(filepath.Join(PointDir(stale, 1), "summary.json"), []byte(failed), 0o644)
 	var log bytes.Buffer
 	r, err := RunSweepPoint(ctx, s, 0, SweepOptions{Out: stale, Cores: 1, Log: &log})
-	if err != nil || r.Err != "" || r.Skipped || r.Resumed {
+	if err != nil || r.Err != nil || r.Skipped || r.Resumed {
 		t.Fatalf("stale point: %v %+v", err, r)
 	}
 	want, _ := os.ReadFile(filepath.Join(PointDir(fresh, 0), "series.csv"))
@@ -88,7 +88,7 @@ func TestRunSweepPointAgain(t *testing.T) {
 		t.Errorf("the log does not say the point runs again:\n%s", log.String())
 	}
 	r, err = RunSweepPoint(ctx, s, 1, SweepOptions{Out: stale, Cores: 1})
-	if err != nil || !r.Skipped || r.Err != "an earlier failure" {
+	if err != nil || !r.Skipped || errText(r.Err) != "an earlier failure" {
 		t.Errorf("failed point: %v %+v", err, r)
 	}
 	if b, _ := os.ReadFile(filepath.Join(PointDir(stale, 1), "summary.json")); string(b) != failed {
@@ -97,4 +97,12 @@ func TestRunSweepPointAgain(t *testing.T) {
 	if _, err := RunSweepPoint(ctx, s, 2, SweepOptions{Out: stale}); err == nil || !strings.Contains(err.Error(), "points 1 to 2") {
 		t.Errorf("point 3 of 2: %v", err)
 	}
+}
+
+// errText is err's message, "" for nil.
+func errText(err error) string {
+	if err == nil {
+		return ""
+	}
+	return err.Error()
 }

@@ -36,6 +36,12 @@ type SweepOptions struct {
 	Warm bool
 }
 
+// The errors of points that did not run to their end.
+var (
+	ErrInterrupted = errors.New("interrupted (resume the sweep to continue)")
+	ErrNotRun      = errors.New("not run (the sweep was interrupted)")
+)
+
 // SweepResult is one point of a sweep: its values, where it ran, and what
 // its run found (nil Summary when the run failed before it had one).
 type SweepResult struct {
@@ -45,7 +51,7 @@ type SweepResult struct {
 	Summary *run.Summary
 	Resumed bool   // continued from a checkpoint
 	Skipped bool   // finished by an earlier invocation; nothing was run
-	Err     string // why the run failed, if it did
+	Err     error  // why the run failed, if it did (the run's own error, its chain kept)
 }
 
 // PointDir is the run directory of point i of a sweep in out.
@@ -82,42 +88,26 @@ func RunSweep(ctx context.Context, s *cases.Sweep, o SweepOptions) ([]SweepResul
 	var mu sync.Mutex // serialises log lines
 	var doneMu sync.Mutex
 	var done []int // points finished, for warm starts
-	next := make(chan int)
-	var wg sync.WaitGroup
-	for range jobs {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for i := range next {
-				from := ""
-				if o.Warm {
-					doneMu.Lock()
-					if k := nearestPoint(s, pts, i, done); k >= 0 {
-						from = PointDir(o.Out, k)
-					}
-					doneMu.Unlock()
-				}
-				r := runPoint(ctx, s, i, pts[i], o.Out, threads, log, &mu, from, o.Warm)
-				results[i] = r
-				if r.Err == "" && r.Summary != nil && r.Summary.Completed {
-					doneMu.Lock()
-					done = append(done, i)
-					doneMu.Unlock()
-				}
+	eachPoint(ctx, len(pts), jobs, func(i int) {
+		from := ""
+		if o.Warm {
+			doneMu.Lock()
+			if k := nearestPoint(s, pts, i, done); k >= 0 {
+				from = PointDir(o.Out, k)
 			}
-		}()
-	}
-	for i := range pts {
-		if ctx.Err() != nil {
-			break
+			doneMu.Unlock()
 		}
-		next <- i
-	}
-	close(next)
-	wg.Wait()
+		r := runPoint(ctx, s, i, pts[i], o.Out, threads, log, &mu, from, o.Warm)
+		results[i] = r
+		if r.Err == nil && r.Summary != nil && r.Summary.Completed {
+			doneMu.Lock()
+			done = append(done, i)
+			doneMu.Unlock()
+		}
+	})
 	for i := range results {
 		if results[i].Dir == "" { // not started: interrupted before its turn
-			results[i] = SweepResult{Index: i, Point: pts[i], Dir: PointDir(o.Out, i), Err: "not run (the sweep was interrupted)"}
+			results[i] = SweepResult{Index: i, Point: pts[i], Dir: PointDir(o.Out, i), Err: ErrNotRun}
 		}
 	}
 	if err := WriteSweepResults(filepath.Join(o.Out, ResultsFile), s, results); err != nil {
@@ -192,13 +182,13 @@ func runPoint(ctx context.Context, s *cases.Sweep, i int, pt cases.Point, out st
 	}
 	_, c, err := s.CaseAt(pt)
 	if err != nil {
-		r.Err = err.Error()
+		r.Err = err
 		say("%v", err)
 		return r
 	}
 	l, err := cases.Resolve(c)
 	if err != nil {
-		r.Err = err.Error()
+		r.Err = err
 		say("%v", err)
 		return r
 	}
@@ -218,10 +208,10 @@ func runPoint(ctx context.Context, s *cases.Sweep, i int, pt cases.Point, out st
 	r.Summary = sum
 	switch {
 	case err != nil:
-		r.Err = err.Error()
+		r.Err = err
 		say("failed: %v", err)
 	case sum != nil && sum.Interrupted:
-		r.Err = "interrupted (resume the sweep to continue)"
+		r.Err = ErrInterrupted
 		say("interrupted at a checkpoint")
 	default:
 		say("done in %.1f s", sum.WallTime)
@@ -233,8 +223,7 @@ func runPoint(ctx context.Context, s *cases.Sweep, i int, pt cases.Point, out st
 // distance in each varied key scaled to the key's range (logarithmically
 // for log ranges); -1 when done is empty. Ties go to the lower index.
 func nearestPoint(s *cases.Sweep, pts []cases.Point, i int, done []int) int {
-	best, bestD := -1, math.Inf(1)
-	for _, k := range done {
+	return nearest(done, func(k int) float64 {
 		var d float64
 		for n, p := range s.Params {
 			a, b := pts[i][n], pts[k][n]
@@ -246,11 +235,8 @@ func nearestPoint(s *cases.Sweep, pts []cases.Point, i int, done []int) int {
 				d += ((a - b) / (hi - lo)) * ((a - b) / (hi - lo))
 			}
 		}
-		if d < bestD || d == bestD && k < best {
-			best, bestD = k, d
-		}
-	}
-	return best
+		return d
+	})
 }
 
 // ReadSummary reads summary.json of a run directory.
@@ -330,8 +316,8 @@ func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error
 		}
 		status := "done"
 		switch {
-		case r.Err != "":
-			status = r.Err
+		case r.Err != nil:
+			status = r.Err.Error()
 		case r.Summary == nil || !r.Summary.Completed:
 			status = "not finished"
 		}
@@ -372,7 +358,7 @@ var errSweepFailed = errors.New("some points failed")
 func SweepFailures(results []SweepResult) error {
 	var bad []string
 	for _, r := range results {
-		if r.Err != "" {
+		if r.Err != nil {
 			bad = append(bad, strconv.Itoa(r.Index+1))
 		}
 	}

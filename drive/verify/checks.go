@@ -67,18 +67,6 @@ func Checks() []Check {
 	}
 }
 
-// Run runs the quick checks, and with full the long ones too, calling each
-// (when not nil) after every check with its rows.
-func Run(full bool, o Options, each func(c Check, rows []Row)) ([]Row, error) {
-	var list []Check
-	for _, c := range Checks() {
-		if !c.Full || full {
-			list = append(list, c)
-		}
-	}
-	return RunChecks(list, o, each)
-}
-
 // RunChecks runs the given checks in order, calling each (when not nil)
 // after every check with its rows.
 func RunChecks(list []Check, o Options, each func(c Check, rows []Row)) ([]Row, error) {

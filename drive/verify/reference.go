@@ -13,9 +13,6 @@ type Womersley struct {
 	R, Nu, Omega, G0, Rho float64
 }
 
-// Alpha returns the Womersley number R sqrt(omega/nu).
-func (w Womersley) Alpha() float64 { return w.R * math.Sqrt(w.Omega/w.Nu) }
-
 // k returns the complex wavenumber i^{3/2} sqrt(omega/nu).
 func (w Womersley) k() complex128 {
 	return complex(math.Sqrt(w.Omega/w.Nu), 0) * cmplx.Exp(complex(0, 3*math.Pi/4))

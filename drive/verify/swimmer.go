@@ -2,6 +2,7 @@ package verify
 
 import (
 	"fmt"
+	"gonum.org/v1/gonum/stat"
 	"math"
 	"math/cmplx"
 
@@ -88,13 +89,11 @@ func checkScallop(o Options) ([]Row, error) {
 		ratio = append(ratio, perPeriod/stroke)
 	}
 	// least-squares slope of log(ratio) against log(M^2)
-	var sx, sy, sxx, sxy float64
+	lx, ly := make([]float64, len(m2s)), make([]float64, len(m2s))
 	for i, m2 := range m2s {
-		x, y := math.Log(m2), math.Log(ratio[i])
-		sx, sy, sxx, sxy = sx+x, sy+y, sxx+x*x, sxy+x*y
+		lx[i], ly[i] = math.Log(m2), math.Log(ratio[i])
 	}
-	n := float64(len(m2s))
-	slope := (n*sxy - sx*sy) / (n*sxx - sx*sx)
+	_, slope := stat.LinearRegression(lx, ly, nil, false)
 	const src = "falls monotonically toward 0 (Purcell 1977)"
 	rows = append(rows, info("scallop limit", fmt.Sprintf("displacement/period / stroke, M^2=%g", m2s[0]),
 		ratio[0], math.NaN(), src+": the start of the fall"))
