@@ -347,4 +347,3 @@ func TestConversions(t *testing.T) {
 		t.Errorf("Pressure(%g) = %g, want %g", want, got, rhoL)
 	}
 }
-

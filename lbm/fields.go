@@ -205,4 +205,3 @@ func (s *Solver) State() [Q][]float64 {
 	}
 	return c
 }
-

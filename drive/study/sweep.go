@@ -49,9 +49,9 @@ type SweepResult struct {
 	Point   cases.Point
 	Dir     string
 	Summary *run.Summary
-	Resumed bool   // continued from a checkpoint
-	Skipped bool   // finished by an earlier invocation; nothing was run
-	Err     error  // why the run failed, if it did (the run's own error, its chain kept)
+	Resumed bool  // continued from a checkpoint
+	Skipped bool  // finished by an earlier invocation; nothing was run
+	Err     error // why the run failed, if it did (the run's own error, its chain kept)
 }
 
 // PointDir is the run directory of point i of a sweep in out.
