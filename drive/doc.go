@@ -1,5 +1,9 @@
-// Package drive runs a case: the shaken frame of the container, the bodies
-// and springs in it, the coupled time step, and the swimmer's observables.
+// Package drive is the coupled time step of a case: the shaken frame of
+// the container, the bodies and springs in it (leapfrog dynamics with
+// dashpots, virtual mass, arms and repulsion), the mass keeper, prescribed
+// motion, and Simulation, which steps the lattice and the bodies together,
+// observes the liquid and guards the run. Running a case to its files is
+// package drive/run's; what a run records, drive/record's.
 //
 // The solver works in the frame of the container, which the shaker moves
 // as X(t) = A s(t) sin(omega t) along the axis (s ramps the amplitude up

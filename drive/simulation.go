@@ -204,8 +204,10 @@ const (
 	guardDensity = 0.1
 )
 
-// GuardError is the diagnosis of an observation that broke a hard limit
-// (Simulation.Guard): which limit, where, and the remedy.
+// GuardError is the diagnosis of a hard limit broken by an observation
+// (Simulation.Guard) or by a step of the bodies (Advance: a sphere faster
+// than the wall CFL limit, a gap closed below a cell): which limit, where,
+// and the remedy.
 type GuardError struct {
 	Time      float64 // s
 	Diagnosis string

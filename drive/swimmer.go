@@ -152,8 +152,8 @@ func (s *Simulation) stepBodies(n int64) error {
 	for k := range sw.bodies.List {
 		v := sw.dyn.V[k]
 		if math.IsNaN(v) || math.Abs(v) >= 0.5 {
-			return fmt.Errorf("sphere %d moves %.3g cells per step at t = %.6g s (the wall CFL limit is 0.5): %s",
-				k+1, v, t, s.instabilityRemedy())
+			return &GuardError{Time: t, Diagnosis: fmt.Sprintf("sphere %d moves %.3g cells per step at t = %.6g s (the wall CFL limit is 0.5): %s",
+				k+1, v, t, s.instabilityRemedy())}
 		}
 	}
 	if err := sw.bodies.MoveAll(sw.dyn.Z, sw.dyn.V); err != nil {
@@ -164,8 +164,8 @@ func (s *Simulation) stepBodies(n int64) error {
 		if j < 0 {
 			what = fmt.Sprintf("sphere %d and an end wall", i+1)
 		}
-		return fmt.Errorf("the gap between %s closed to %.2f cells at t = %.6g s: lubrication is unresolved "+
-			"(raise bodies.repulsion_range, stiffen the spring, or raise grid.cells_per_radius)", what, g, t)
+		return &GuardError{Time: t, Diagnosis: fmt.Sprintf("the gap between %s closed to %.2f cells at t = %.6g s: lubrication is unresolved "+
+			"(raise bodies.repulsion_range, stiffen the spring, or raise grid.cells_per_radius)", what, g, t)}
 	}
 	sw.mass.Step(s.Fluid)
 	return nil

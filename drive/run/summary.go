@@ -149,14 +149,36 @@ func summarizeSwimmer(sum *Summary, sim *drive.Simulation, tr *record.Periods) {
 	last := tr.Rows()[len(tr.Rows())-1]
 	for _, ms := range m.Springs {
 		k := ms.Spring - 1
-		sum.Comparison = append(sum.Comparison, compare(fmt.Sprintf("spring %d extension amplitude (m)", ms.Spring), last.ExtAmp[k], ms.Amplitude))
-		sum.Comparison = append(sum.Comparison, Comparison{Quantity: fmt.Sprintf("spring %d extension phase (deg)", ms.Spring),
+		sum.Comparison = append(sum.Comparison, compare(springAmplitude(ms.Spring), last.ExtAmp[k], ms.Amplitude))
+		sum.Comparison = append(sum.Comparison, Comparison{Quantity: springPhase(ms.Spring),
 			Simulated: finiteOr0(last.ExtPhase[k]), Model: ms.Phase})
 	}
 	for _, ms := range m.Spheres {
 		k := ms.Sphere - 1
 		sum.Comparison = append(sum.Comparison, compare(fmt.Sprintf("sphere %d amplitude relative to the container (m)", ms.Sphere), last.BodyAmp[k], ms.Amplitude))
 	}
+}
+
+// The quantities of the spring comparisons (spring is 1-based).
+func springAmplitude(spring int) string {
+	return fmt.Sprintf("spring %d extension amplitude (m)", spring)
+}
+func springPhase(spring int) string { return fmt.Sprintf("spring %d extension phase (deg)", spring) }
+
+// Spring returns the simulated extension amplitude (m) and phase (deg)
+// of spring (1-based) over the last period, as compared with the linear
+// model; ok is false when the summary has no such comparison.
+func (s *Summary) Spring(spring int) (amplitude, phase float64, ok bool) {
+	var hasAmp, hasPhase bool
+	for _, c := range s.Comparison {
+		switch c.Quantity {
+		case springAmplitude(spring):
+			amplitude, hasAmp = c.Simulated, true
+		case springPhase(spring):
+			phase, hasPhase = c.Simulated, true
+		}
+	}
+	return amplitude, phase, hasAmp && hasPhase
 }
 
 // finiteOr0 maps NaN (not valid JSON) to 0.

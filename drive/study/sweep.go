@@ -301,13 +301,8 @@ func WriteSweepResults(path string, s *cases.Sweep, results []SweepResult) error
 			if sum.LeadingSphere != nil {
 				lead = strconv.Itoa(*sum.LeadingSphere)
 			}
-			for _, cmp := range sum.Comparison {
-				switch cmp.Quantity {
-				case "spring 1 extension amplitude (m)":
-					amp = cmp.Simulated
-				case "spring 1 extension phase (deg)":
-					ph = cmp.Simulated
-				}
+			if a, p, ok := sum.Spring(1); ok {
+				amp, ph = a, p
 			}
 			wall = sum.WallTime
 			if w := sum.WarmStart; w != nil && w.Used {
