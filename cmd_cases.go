@@ -9,7 +9,6 @@ import (
 
 func cmdCases(args []string, stdout, stderr io.Writer) error {
 	fs := newFlags("cases", stderr)
-	fs.Usage = func() { fmt.Fprintln(stderr, "usage: axiswim cases [NAME]") }
 	if err := parseFlags(fs, args); err != nil {
 		return err
 	}
@@ -29,10 +28,10 @@ func cmdCases(args []string, stdout, stderr io.Writer) error {
 	case 1:
 		src, err := cases.Get(fs.Arg(0))
 		if err != nil {
-			return fmt.Errorf("%w: %v (list them with 'axiswim cases')", errUsage, err)
+			return usageErrorf("%w (list them with 'axiswim cases')", err)
 		}
 		_, err = stdout.Write(src)
 		return err
 	}
-	return fmt.Errorf("%w: one name at most", errUsage)
+	return usageErrorf("one name at most")
 }

@@ -18,18 +18,17 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 	fs := newFlags("check", stderr)
 	threads := fs.Int("threads", 0, "goroutines for the timed sample (0: all cores)")
 	quiet := fs.Bool("quiet", false, "no progress on stderr")
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: axiswim check [-threads N] [-quiet] CASE.toml")
-		fmt.Fprintln(stderr, "Validates the case, prints its groups and lattice, and times a short sample.")
-		fs.PrintDefaults()
-	}
 	if err := parseFlags(fs, args); err != nil {
 		return err
 	}
 	if fs.NArg() != 1 {
-		return fmt.Errorf("%w: give one case file (see 'axiswim cases' for examples)", errUsage)
+		return usageErrorf("give one case file (see 'axiswim cases' for examples)")
 	}
-	c, err := cases.Load(fs.Arg(0))
+	cs, err := readCase(fs.Arg(0))
+	if err != nil {
+		return err
+	}
+	c, err := cases.Parse(cs.label, cs.src)
 	var keyErrs cases.KeyErrors
 	if err != nil && !(errors.As(err, &keyErrs) && c != nil) {
 		return err // unreadable: syntax or type error, with its line

@@ -14,18 +14,12 @@ import (
 
 func cmdCollect(args []string, stdout, stderr io.Writer) error {
 	fs := newFlags("collect", stderr)
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: axiswim collect DIR")
-		fmt.Fprintln(stderr, "Gathers the points of the sweep in DIR (run by 'axiswim sweep -point N DIR', one Slurm array task each)")
-		fmt.Fprintln(stderr, "into results.csv and the speed pictures, and lists the points not done. Runs nothing.")
-		fs.PrintDefaults()
-	}
 	if err := parseFlags(fs, args); err != nil {
 		return err
 	}
 	if fs.NArg() != 1 {
 		fs.Usage()
-		return fmt.Errorf("%w: give one sweep directory, got %q", errUsage, fs.Args())
+		return usageErrorf("give one sweep directory, got %q", fs.Args())
 	}
 	dir := fs.Arg(0)
 	s, err := loadSweepDir(dir)

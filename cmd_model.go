@@ -15,17 +15,11 @@ import (
 func cmdModel(args []string, stdout, stderr io.Writer) error {
 	fs := newFlags("model", stderr)
 	asJSON := fs.Bool("json", false, "print the result as JSON")
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: axiswim model [-json] CASE.toml")
-		fmt.Fprintln(stderr, "Solves the reduced linear model of the case: each sphere alone in unsteady Stokes flow")
-		fmt.Fprintln(stderr, "(Landau-Lifshitz force), joined by its springs and arms. No lattice is run.")
-		fs.PrintDefaults()
-	}
 	if err := parseFlags(fs, args); err != nil {
 		return err
 	}
 	if fs.NArg() != 1 {
-		return fmt.Errorf("%w: give one case file (see 'axiswim cases' for examples)", errUsage)
+		return usageErrorf("give one case file (see 'axiswim cases' for examples)")
 	}
 	c, _, name, err := loadCase(fs.Arg(0))
 	if err != nil {

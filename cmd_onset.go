@@ -1,21 +1,15 @@
 package main
 
 import (
-	"context"
-	"flag"
 	"fmt"
 	"io"
 	"math"
-	"os"
-	"os/signal"
 	"path/filepath"
 	"strconv"
 	"strings"
-	"syscall"
 
 	"axiswim/cases"
 	"axiswim/drive/study"
-	"axiswim/output"
 )
 
 // defaultFloorFraction sets the default speed floor of an onset search:
@@ -41,19 +35,11 @@ func cmdOnset(args []string, stdout, stderr io.Writer) error {
 	resume := fs.String("resume", "", "continue the search in this directory (finished runs are reused)")
 	quiet := fs.Bool("quiet", false, "no line per run on stderr")
 	warm := fs.Bool("warm", false, "start each narrowing run from the final state of the nearest earlier run (a shorter transient)")
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: axiswim onset [-param KEY] [-between LO,HI] [-tol F] [-floor M/S] [-jobs N] [-out DIR] CASE.toml")
-		fmt.Fprintln(stderr, "       axiswim onset -resume DIR [-threads N]")
-		fmt.Fprintln(stderr, "Finds where the swimmer starts to swim as KEY grows (or falls): a scan across the bracket, then")
-		fmt.Fprintln(stderr, "bisection of the change from not swimming to swimming, then a power law and a threshold law")
-		fmt.Fprintln(stderr, "fitted to the speeds, and which one the data support. CASE may be an embedded case name.")
-		fs.PrintDefaults()
-	}
 	if err := parseFlags(fs, args); err != nil {
 		return err
 	}
-	if *jobs < 1 || *threads < 0 {
-		return fmt.Errorf("%w: -jobs must be at least 1 and -threads 0 or more", errUsage)
+	if err := checkJobs(*jobs, *threads); err != nil {
+		return err
 	}
 	var search study.OnsetSearch
 	var base []byte
@@ -65,9 +51,7 @@ func cmdOnset(args []string, stdout, stderr io.Writer) error {
 		if search, base, err = study.LoadOnset(dir); err != nil {
 			return fmt.Errorf("resume: %w", err)
 		}
-		set := false
-		fs.Visit(func(f *flag.Flag) { set = set || f.Name == "jobs" })
-		if set && *jobs != search.Jobs {
+		if flagsSet(fs)["jobs"] && *jobs != search.Jobs {
 			fmt.Fprintf(stderr, "note: the search runs %d point(s) a round as recorded; -jobs %d is not used on resuming (the rounds would ask for other values)\n", search.Jobs, *jobs)
 		}
 	case *resume == "" && fs.NArg() == 1:
@@ -83,38 +67,23 @@ func cmdOnset(args []string, stdout, stderr io.Writer) error {
 			return err
 		}
 		if err := search.Options().Check(); err != nil {
-			return fmt.Errorf("%w: %v", errUsage, err)
+			return usageErrorf("%w", err)
 		}
-		dir = *out
-		if dir == "" {
-			dir = freshDir("onset-" + search.Name)
-		}
-		if err := output.RunDir(dir, false); err != nil {
-			return fmt.Errorf("%w (continue a search with -resume %s)", err, dir)
+		dir = runDir(*out, "onset-"+search.Name)
+		if err := makeRunDir(dir, "continue a search with -resume "+dir); err != nil {
+			return err
 		}
 	default:
 		fs.Usage()
-		return fmt.Errorf("%w: give one case file, or -resume DIR alone", errUsage)
+		return usageErrorf("give one case file, or -resume DIR alone")
 	}
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	ctx, stop := signalContext(nil)
 	defer stop()
-	go func() {
-		<-ctx.Done()
-		stop() // a second signal ends the process at once
-	}()
-	log := stderr
-	if *quiet {
-		log = io.Discard
-	}
 	fmt.Fprintf(stderr, "%s: onset in %s between %g and %g, to %g%%; swimming: |U| > %g standard errors and > %.3g m/s\n",
 		dir, search.Key, search.Lo, search.Hi, 100*search.Tol, search.Sigmas, search.Floor)
-	res, err := study.RunOnset(ctx, search, base, study.OnsetRunOptions{Out: dir, Cores: *threads, Log: log, Resume: *resume != ""})
+	res, err := study.RunOnset(ctx, search, base, study.OnsetRunOptions{Out: dir, Cores: *threads, Log: progressLog(stderr, *quiet), Resume: *resume != ""})
 	if err != nil {
-		if ctx.Err() != nil {
-			fmt.Fprintf(stderr, "stopped; continue with: axiswim onset -resume %s\n", dir)
-			return fmt.Errorf("%w: %v", errStopped, err)
-		}
-		return err
+		return stopped(ctx, err, stderr, "axiswim onset -resume "+dir)
 	}
 	printOnset(stdout, search, res)
 	fmt.Fprintf(stdout, "written: %s, %s, %s\n", filepath.Join(dir, study.OnsetTableFile),
@@ -122,21 +91,15 @@ func cmdOnset(args []string, stdout, stderr io.Writer) error {
 	return nil
 }
 
-// newOnsetSearch reads the case (a file, or an embedded case by name) and
-// the bracket.
+// newOnsetSearch reads the case (see readCase) and the bracket.
 func newOnsetSearch(path, key, between, scale string) (study.OnsetSearch, []byte, error) {
 	s := study.OnsetSearch{Key: key}
-	src, err := os.ReadFile(path)
+	cs, err := readCase(path)
 	if err != nil {
-		if emb, gerr := cases.Get(path); gerr == nil && !strings.ContainsAny(path, `/\.`) {
-			src, err = emb, nil
-		}
+		return s, nil, err
 	}
-	if err != nil {
-		return s, nil, fmt.Errorf("read case: %w", err)
-	}
-	s.Name = strings.TrimSuffix(filepath.Base(path), filepath.Ext(path))
-	c, err := cases.Parse(path, src)
+	s.Name = cs.name
+	c, err := cases.Parse(cs.label, cs.src)
 	if err != nil {
 		return s, nil, err
 	}
@@ -147,13 +110,13 @@ func newOnsetSearch(path, key, between, scale string) (study.OnsetSearch, []byte
 		s.Lo, e1 = strconv.ParseFloat(strings.TrimSpace(lo), 64)
 		s.Hi, e2 = strconv.ParseFloat(strings.TrimSpace(hi), 64)
 		if !ok || e1 != nil || e2 != nil {
-			return s, nil, fmt.Errorf("%w: -between %q: write two numbers LO,HI, e.g. -between 5e-5,4e-4", errUsage, between)
+			return s, nil, usageErrorf("-between %q: write two numbers LO,HI, e.g. -between 5e-5,4e-4", between)
 		}
 	case key == "shaking.amplitude":
 		s.Hi = c.Shaking.Amplitude
 		s.Lo = s.Hi / 8
 	default:
-		return s, nil, fmt.Errorf("%w: -param %s needs -between LO,HI (the default bracket is only for the amplitude)", errUsage, key)
+		return s, nil, usageErrorf("-param %s needs -between LO,HI (the default bracket is only for the amplitude)", key)
 	}
 	switch scale {
 	case "":
@@ -161,9 +124,9 @@ func newOnsetSearch(path, key, between, scale string) (study.OnsetSearch, []byte
 	case cases.ScaleLog, cases.ScaleLinear:
 		s.Log = scale == cases.ScaleLog
 	default:
-		return s, nil, fmt.Errorf("%w: -scale %q: use log or linear", errUsage, scale)
+		return s, nil, usageErrorf("-scale %q: use log or linear", scale)
 	}
-	return s, src, nil
+	return s, cs.src, nil
 }
 
 // onsetFloor returns the floor asked for, or the default: 1e-4 of the

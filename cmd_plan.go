@@ -31,9 +31,7 @@ type slurmPlan struct {
 // anything: sweep.toml and base.toml (as a sweep does), points.csv, the
 // Slurm array script and the directory of the tasks' logs.
 func planSweep(s *cases.Sweep, out string, cores int, stdout, stderr io.Writer) error {
-	if out == "" {
-		out = freshDir("sweep-" + s.Name)
-	}
+	out = runDir(out, "sweep-"+s.Name)
 	if cores == 0 {
 		cores = defaultTaskCores
 	}
@@ -42,8 +40,8 @@ func planSweep(s *cases.Sweep, out string, cores int, stdout, stderr io.Writer) 
 		return fmt.Errorf("sweep directory %s: %w", out, err)
 	}
 	if bad := strings.IndexFunc(dir, unsafeInSbatch); bad >= 0 {
-		return fmt.Errorf("%w: the sweep directory %s holds %q, which a #SBATCH line cannot carry (Slurm splits those lines at spaces and reads %% as a pattern): choose an -out path without spaces, quotes, backslashes or %%",
-			errUsage, dir, dir[bad:bad+1])
+		return usageErrorf("the sweep directory %s holds %q, which a #SBATCH line cannot carry (Slurm splits those lines at spaces and reads %% as a pattern): choose an -out path without spaces, quotes, backslashes or %%",
+			dir, dir[bad:bad+1])
 	}
 	exe, err := os.Executable()
 	if err != nil {
@@ -66,8 +64,8 @@ func planSweep(s *cases.Sweep, out string, cores int, stdout, stderr io.Writer) 
 		}
 		p.Memory = max(p.Memory, l.MemoryBytes())
 	}
-	if err := output.RunDir(dir, false); err != nil {
-		return fmt.Errorf("%w (a planned sweep's points run with: axiswim sweep -point N %s)", err, dir)
+	if err := makeRunDir(dir, "a planned sweep's points run with: axiswim sweep -point N "+dir); err != nil {
+		return err
 	}
 	if err := s.WriteFiles(dir, output.WriteFileAtomic); err != nil {
 		return err

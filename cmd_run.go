@@ -1,94 +1,16 @@
 package main
 
 import (
-	"context"
-	"errors"
-	"flag"
 	"fmt"
 	"io"
 	"math"
 	"os"
-	"os/signal"
 	"path/filepath"
-	"strings"
-	"syscall"
 	"time"
 
-	"axiswim/cases"
 	"axiswim/drive/record"
 	"axiswim/drive/run"
 )
-
-// errStopped marks a run interrupted by a signal.
-var errStopped = errors.New("stopped by a signal")
-
-func newFlags(name string, stderr io.Writer) *flag.FlagSet {
-	fs := flag.NewFlagSet("axiswim "+name, flag.ContinueOnError)
-	fs.SetOutput(stderr)
-	return fs
-}
-
-// errHelp marks a command asked for its help (-h), which the flag set
-// has printed: the command ends there, successfully.
-var errHelp = errors.New("help shown")
-
-// parseFlags parses args, turning a flag error into a usage error and -h
-// into errHelp.
-func parseFlags(fs *flag.FlagSet, args []string) error {
-	if err := fs.Parse(args); err != nil {
-		if errors.Is(err, flag.ErrHelp) {
-			return errHelp
-		}
-		return fmt.Errorf("%w: %v", errUsage, err)
-	}
-	return nil
-}
-
-// loadCase reads a case file (or an embedded example by name, when no
-// such file exists), or the embedded demo when path is empty, and
-// resolves it to lattice units. It returns the case's short name.
-func loadCase(path string) (*cases.Case, *cases.Lattice, string, error) {
-	var c *cases.Case
-	var err error
-	name := "demo"
-	if path == "" {
-		src, gerr := cases.Get("demo")
-		if gerr != nil {
-			return nil, nil, "", gerr
-		}
-		c, err = cases.Parse("demo (embedded)", src)
-	} else {
-		name = strings.TrimSuffix(filepath.Base(path), filepath.Ext(path))
-		_, statErr := os.Stat(path)
-		if src, gerr := cases.Get(path); statErr != nil && gerr == nil && !strings.ContainsAny(path, `/\.`) {
-			c, err = cases.Parse(path+" (embedded)", src) // an example by name: axiswim run three-sphere-lag
-		} else {
-			c, err = cases.Load(path)
-		}
-	}
-	if err != nil {
-		return nil, nil, "", err
-	}
-	l, err := cases.Resolve(c)
-	if err != nil {
-		return nil, nil, "", err
-	}
-	return c, l, name, nil
-}
-
-// freshDir returns runs/NAME, or runs/NAME-2, -3, ... if that is taken, so
-// that a run without -out never touches an earlier run's files.
-func freshDir(name string) string {
-	base := filepath.Join("runs", name)
-	dir := base
-	for i := 2; ; i++ {
-		entries, err := os.ReadDir(dir)
-		if err != nil || len(entries) == 0 {
-			return dir
-		}
-		dir = fmt.Sprintf("%s-%d", base, i)
-	}
-}
 
 func cmdRun(args []string, stdout, stderr io.Writer) error {
 	fs := newFlags("run", stderr)
@@ -99,28 +21,22 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 	resume := fs.String("resume", "", "continue the interrupted run in `DIR` from its checkpoint")
 	ckMin := fs.Float64("checkpoint-minutes", 10, "wall time between checkpoints")
 	ckPer := fs.Int("checkpoint-periods", 0, "also write a checkpoint every N drive periods (0: only by wall time)")
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: axiswim run [-out DIR] [-threads N] [-quiet] [-force] [CASE.toml]")
-		fmt.Fprintln(stderr, "       axiswim run -resume DIR [-threads N] [-quiet]")
-		fmt.Fprintln(stderr, "With no case file, runs the embedded demo ('axiswim cases demo' prints it).")
-		fs.PrintDefaults()
-	}
-	if err := parseFlags(fs, args); err != nil || fs.NArg() > 1 {
-		if err == nil {
-			err = fmt.Errorf("%w: one case file at most, got %q", errUsage, fs.Args())
-		}
+	if err := parseFlags(fs, args); err != nil {
 		return err
 	}
+	if fs.NArg() > 1 {
+		return usageErrorf("one case file at most, got %q", fs.Args())
+	}
 	if *ckMin <= 0 || *ckPer < 0 {
-		return fmt.Errorf("%w: -checkpoint-minutes must be positive and -checkpoint-periods 0 or more", errUsage)
+		return usageErrorf("-checkpoint-minutes must be positive and -checkpoint-periods 0 or more")
 	}
 	if *threads < 0 {
-		return fmt.Errorf("%w: -threads %d: give 0 (all cores) or a positive number", errUsage, *threads)
+		return usageErrorf("-threads %d: give 0 (all cores) or a positive number", *threads)
 	}
 	caseFile, dir := fs.Arg(0), *out
 	if *resume != "" {
 		if caseFile != "" || dir != "" {
-			return fmt.Errorf("%w: -resume DIR takes its case from DIR/case.toml; give no case file and no -out", errUsage)
+			return usageErrorf("-resume DIR takes its case from DIR/case.toml; give no case file and no -out")
 		}
 		dir, caseFile = *resume, filepath.Join(*resume, "case.toml")
 	}
@@ -128,9 +44,7 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	if dir == "" {
-		dir = freshDir(name)
-	}
+	dir = runDir(dir, name)
 	for _, w := range l.Warnings {
 		fmt.Fprintf(stderr, "warning: %s\n", w)
 	}
@@ -139,18 +53,14 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 			name, l.Nz, l.Nr, l.Dx, l.Dt, l.Tau, l.Bound, l.Steps)
 		fmt.Fprintf(stderr, "writing to %s\n", dir)
 	}
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
-	defer stop()
-	go func() {
-		// After the first signal the run finishes its step and flushes its
-		// files; restoring the default handling lets a second signal end the
-		// process at once.
-		<-ctx.Done()
-		stop()
+	// After the first signal the run finishes its step and flushes its
+	// files; a second signal ends the process at once.
+	ctx, stop := signalContext(func() {
 		if !*quiet {
 			fmt.Fprintln(stderr, "stopping after this step and writing what the run has; a second Ctrl-C ends it at once")
 		}
-	}()
+	})
+	defer stop()
 	sum, err := run.Execute(ctx, c, l, run.Options{Out: dir, Force: *force, Threads: *threads, Quiet: *quiet, Log: stderr,
 		Resume: *resume != "", CheckpointEvery: time.Duration(*ckMin * float64(time.Minute)), CheckpointPeriods: *ckPer})
 	if sum != nil {

@@ -23,10 +23,6 @@ func cmdVerify(args []string, stdout, stderr io.Writer) error {
 	only := fs.String("only", "", "run only these checks, quick or full (comma-separated names, as 'verify -list' prints them)")
 	list := fs.Bool("list", false, "list the checks and stop")
 	single := fs.Bool("float32", false, "store the populations in float32 (solver.precision = \"float32\") in every check")
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: axiswim verify [-full] [-only NAME,...] [-list] [-float32] [-threads N] [-quiet]")
-		fs.PrintDefaults()
-	}
 	if err := parseFlags(fs, args); err != nil {
 		return err
 	}
