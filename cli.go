@@ -146,16 +146,14 @@ func readCase(path string) (caseSource, error) {
 		src, err := cases.Get("demo")
 		return caseSource{"demo", "demo (embedded)", src}, err
 	}
-	src, err := os.ReadFile(path)
-	if err == nil {
-		return caseSource{strings.TrimSuffix(filepath.Base(path), filepath.Ext(path)), path, src}, nil
+	src, embedded, err := cases.Open(path, "")
+	switch {
+	case err != nil:
+		return caseSource{}, fmt.Errorf("load case: %w", err)
+	case embedded:
+		return caseSource{path, path + " (embedded)", src}, nil
 	}
-	if errors.Is(err, fs.ErrNotExist) && !strings.ContainsAny(path, `/\.`) {
-		if src, gerr := cases.Get(path); gerr == nil {
-			return caseSource{path, path + " (embedded)", src}, nil
-		}
-	}
-	return caseSource{}, fmt.Errorf("load case: %w", err)
+	return caseSource{strings.TrimSuffix(filepath.Base(path), filepath.Ext(path)), path, src}, nil
 }
 
 // loadCase reads the case at path (see readCase) and resolves it to

@@ -303,3 +303,27 @@ func TestVerifySelect(t *testing.T) {
 		t.Errorf("verify -only with an unknown name: exit %d, stderr %q", code, errOut)
 	}
 }
+
+// TestReadmeCommands: the README's command block is the help's list of
+// command forms, line for line (help's table in main.go is the source).
+func TestReadmeCommands(t *testing.T) {
+	readme, err := os.ReadFile("README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, help, _ := cli(t, "help")
+	var want, got []string
+	for _, l := range strings.Split(help, "\n") {
+		if strings.HasPrefix(l, "  axiswim ") {
+			want = append(want, strings.TrimSpace(l))
+		}
+	}
+	_, block, _ := strings.Cut(string(readme), "## Commands\n\n")
+	block, _, _ = strings.Cut(block, "\n\n")
+	for _, l := range strings.Split(block, "\n") {
+		got = append(got, strings.TrimSpace(l))
+	}
+	if strings.Join(got, "\n") != strings.Join(want, "\n") {
+		t.Errorf("README's command block:\n%s\nhelp's forms:\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	}
+}

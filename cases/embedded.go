@@ -2,9 +2,12 @@ package cases
 
 import (
 	"embed"
+	"errors"
 	"fmt"
 	"io/fs"
+	"os"
 	"path"
+	"path/filepath"
 	"sort"
 	"strings"
 )
@@ -42,4 +45,27 @@ func Get(name string) ([]byte, error) {
 		return nil, fmt.Errorf("example case %q: no such example (have %s)", name, strings.Join(List(), ", "))
 	}
 	return src, nil
+}
+
+// Open returns the source of the case named name: the file when there is
+// one (a relative name taken from dir, when dir is not ""); otherwise,
+// when name is a bare name (no directory, no extension), the embedded
+// example of that name. embedded says which. A file always comes first,
+// so a file beside the user shadows an example of the same name. The
+// error is the file's when neither is there.
+func Open(name, dir string) (src []byte, embedded bool, err error) {
+	p := name
+	if dir != "" && !filepath.IsAbs(p) {
+		p = filepath.Join(dir, p)
+	}
+	src, err = os.ReadFile(p)
+	if err == nil {
+		return src, false, nil
+	}
+	if errors.Is(err, fs.ErrNotExist) && !strings.ContainsAny(name, `/\.`) {
+		if s, gerr := Get(name); gerr == nil {
+			return s, true, nil
+		}
+	}
+	return nil, false, err
 }

@@ -1,6 +1,10 @@
 package cases
 
 import (
+	"errors"
+	"io/fs"
+	"os"
+	"path/filepath"
 	"reflect"
 	"testing"
 )
@@ -40,5 +44,26 @@ func TestExampleScenarios(t *testing.T) {
 	}
 	if c := get("shaken-cell"); c.Container.Ends != EndsClosed || len(c.Spheres) != 0 || c.Shaking.Amplitude == 0 {
 		t.Errorf("shaken-cell is not a closed shaken container without spheres: %+v", c)
+	}
+}
+
+// TestOpenFileFirst: a file of an example's name shadows the example; a
+// bare name without a file is the example; a name with a directory or an
+// extension is only ever a file.
+func TestOpenFileFirst(t *testing.T) {
+	dir := t.TempDir()
+	mine := []byte("# my own demo\n")
+	if err := os.WriteFile(filepath.Join(dir, "demo"), mine, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if src, embedded, err := Open("demo", dir); err != nil || embedded || string(src) != string(mine) {
+		t.Errorf("Open(demo) beside a file demo: %q, embedded %v, %v; want the file", src, embedded, err)
+	}
+	want, _ := Get("demo")
+	if src, embedded, err := Open("demo", t.TempDir()); err != nil || !embedded || string(src) != string(want) {
+		t.Errorf("Open(demo) without a file: embedded %v, %v; want the example", embedded, err)
+	}
+	if _, _, err := Open("demo.toml", t.TempDir()); !errors.Is(err, fs.ErrNotExist) {
+		t.Errorf("Open(demo.toml) without a file: %v, want the file's not-exist error", err)
 	}
 }

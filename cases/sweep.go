@@ -92,7 +92,7 @@ func ParseSweep(name string, src []byte, dir string) (*Sweep, error) {
 	if raw.Base == "" {
 		return nil, fmt.Errorf("sweep %s: base is missing: give the case file to vary (base = \"case.toml\") or an embedded case name (base = \"demo\")", name)
 	}
-	caseSrc, err := sweepBase(raw.Base, dir)
+	caseSrc, _, err := Open(raw.Base, dir) // a file relative to dir first, then an embedded case
 	if err != nil {
 		return nil, fmt.Errorf("sweep %s: base = %q: %w", name, raw.Base, err)
 	}
@@ -166,21 +166,6 @@ func newSweep(name, base string, caseSrc []byte) (*Sweep, error) {
 		return nil, fmt.Errorf("sweep %s: base case: %w", name, err)
 	}
 	return s, nil
-}
-
-// sweepBase returns the TOML of the base case: an embedded case by name,
-// or a file relative to dir.
-func sweepBase(base, dir string) ([]byte, error) {
-	if !strings.ContainsAny(base, `/\.`) {
-		if src, err := Get(base); err == nil {
-			return src, nil
-		}
-	}
-	path := base
-	if !filepath.IsAbs(path) {
-		path = filepath.Join(dir, path)
-	}
-	return os.ReadFile(path)
 }
 
 // values expands a [[vary]] table.
