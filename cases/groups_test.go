@@ -8,7 +8,9 @@ import (
 // TestGroupsWorkedExample checks the groups of METHODS.md 11.3 (worked
 // example, [D] arithmetic): large sphere a = 1.5 mm: M² = 56.5,
 // ε = 0.333, Re = 18.8, Re_s = 6.28, δ = 0.282 mm; small sphere a = 1 mm:
-// M² = 25.1, ε = 0.5, Re = 12.6.
+// M² = 25.1, ε = 0.5, Re = 12.6; DeltaCells is that δ of 0.282 mm over
+// the lattice's cell (the cell is an input here: with the second, smaller
+// sphere the grid is finer than that of the example's table).
 func TestGroupsWorkedExample(t *testing.T) {
 	c := mustParse(t, "worked", workedExample)
 	c.Spheres = append(c.Spheres, Sphere{Radius: 0.001, Density: 1150, Z: 0.01})
@@ -30,11 +32,13 @@ func TestGroupsWorkedExample(t *testing.T) {
 		{"epsilon small", gs[1].Epsilon, 0.5},
 		{"Re small", gs[1].Re, 12.6},
 		{"Re_s small", gs[1].ReS, 6.28},
-		{"delta/dx", gs[1].DeltaCells, gs[1].Delta / l.Dx},
 	} {
 		if !within(tc.got, tc.want, 0.005) {
 			t.Errorf("%s = %.4g, want %.4g", tc.name, tc.got, tc.want)
 		}
+	}
+	if want := 0.282e-3 / l.Dx; !within(gs[1].DeltaCells, want, 0.005) {
+		t.Errorf("delta/dx = %.4g, want %.4g (0.282 mm, METHODS.md 11.3, over dx)", gs[1].DeltaCells, want)
 	}
 	if gs[0].Sphere != 1 || gs[1].Sphere != 2 {
 		t.Errorf("sphere indices %d, %d", gs[0].Sphere, gs[1].Sphere)
