@@ -296,18 +296,9 @@ func (c *Case) gapCell(a float64) (dx float64, how string) {
 }
 
 func (c *Case) validateArms(v *validator) {
-	// Arms joining spheres into groups, to find loops (union-find).
-	group := make([]int, len(c.Spheres)+1)
-	for i := range group {
-		group[i] = i
-	}
-	var find func(int) int
-	find = func(i int) int {
-		if group[i] != i {
-			group[i] = find(group[i])
-		}
-		return group[i]
-	}
+	// Arms joining spheres into groups, to find loops. Spheres are 1-based
+	// here and a bad index is reported by pair, so the sets run over 0..n.
+	groups := NewUnionFind(len(c.Spheres) + 1)
 	for i, a := range c.Arms {
 		key := fmt.Sprintf("arm[%d]", i+1)
 		okPair := c.pair(v, key+".spheres", "an arm", a.Spheres)
@@ -352,15 +343,12 @@ func (c *Case) validateArms(v *validator) {
 					fmt.Sprintf("remove spring[%d] or %s", k+1, key))
 			}
 		}
-		ri, rj := find(a.Spheres[0]), find(a.Spheres[1])
-		if ri == rj {
+		if !groups.Union(a.Spheres[0], a.Spheres[1]) {
 			v.add(key+".spheres", a.Spheres,
 				fmt.Sprintf("the arms form a loop: spheres %d and %d are already joined through other arms, and the distances around a loop cannot all be prescribed",
 					a.Spheres[0], a.Spheres[1]),
 				"remove one arm of the loop (a chain or a tree of arms is fine)")
-			continue
 		}
-		group[ri] = rj
 	}
 }
 
