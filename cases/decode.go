@@ -99,7 +99,7 @@ func Parse(name string, src []byte) (*Case, error) {
 		}
 		return nil, fmt.Errorf("%s: %w", name, err)
 	}
-	noEmptyArrays(caseSchema, reflect.ValueOf(c).Elem())
+	ownArrays(caseSchema, reflect.ValueOf(c).Elem()) // "sphere = []" gives no spheres, as an absent one
 	// The same document as plain data, for the keys of arrays of tables,
 	// which md.IsDefined cannot index. It decodes, since it did above.
 	var doc map[string]any
@@ -126,25 +126,6 @@ func Parse(name string, src []byte) (*Case, error) {
 		return c, errs
 	}
 	return c, nil
-}
-
-// noEmptyArrays sets every empty array of tables in v, a value of the
-// table t, to nil, as an absent one is: "sphere = []" gives no spheres.
-func noEmptyArrays(t *key, v reflect.Value) {
-	for _, k := range t.keys {
-		f := v.Field(k.field)
-		switch k.kind {
-		case tableKey:
-			noEmptyArrays(k, f)
-		case arrayKey:
-			if f.Len() == 0 {
-				f.SetZero()
-			}
-			for i := range f.Len() {
-				noEmptyArrays(k, f.Index(i))
-			}
-		}
-	}
 }
 
 // missingKeys reports the required keys (case:"required") that are absent,

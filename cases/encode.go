@@ -39,31 +39,8 @@ func (c *Case) WriteTOML(w io.Writer) error {
 // clone returns a deep copy of c; its empty arrays of tables are nil.
 func (c *Case) clone() *Case {
 	cc := *c
-	copyArrays(caseSchema, reflect.ValueOf(&cc).Elem())
+	ownArrays(caseSchema, reflect.ValueOf(&cc).Elem())
 	return &cc
-}
-
-// copyArrays gives every array of tables in v, a value of the table t, an
-// element array of its own, or nil when it is empty.
-func copyArrays(t *key, v reflect.Value) {
-	for _, k := range t.keys {
-		f := v.Field(k.field)
-		switch k.kind {
-		case tableKey:
-			copyArrays(k, f)
-		case arrayKey:
-			if f.Len() == 0 {
-				f.SetZero()
-				continue
-			}
-			elems := reflect.MakeSlice(f.Type(), f.Len(), f.Len())
-			reflect.Copy(elems, f)
-			f.Set(elems)
-			for i := range elems.Len() {
-				copyArrays(k, elems.Index(i))
-			}
-		}
-	}
 }
 
 type encoder struct {

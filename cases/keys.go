@@ -109,3 +109,26 @@ func (k *key) names() []string {
 func (k *key) whole() bool {
 	return k.kind == valueKey && k.typ.Kind() >= reflect.Int && k.typ.Kind() <= reflect.Int64
 }
+
+// ownArrays gives every array of tables in v, a value of the table t, an
+// element array of its own, or nil when it is empty.
+func ownArrays(t *key, v reflect.Value) {
+	for _, k := range t.keys {
+		f := v.Field(k.field)
+		switch k.kind {
+		case tableKey:
+			ownArrays(k, f)
+		case arrayKey:
+			if f.Len() == 0 {
+				f.SetZero()
+				continue
+			}
+			elems := reflect.MakeSlice(f.Type(), f.Len(), f.Len())
+			reflect.Copy(elems, f)
+			f.Set(elems)
+			for i := range elems.Len() {
+				ownArrays(k, elems.Index(i))
+			}
+		}
+	}
+}
