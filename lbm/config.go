@@ -29,6 +29,17 @@ type Config struct {
 	// PeriodicZ makes the ends periodic; otherwise they are no-slip walls.
 	PeriodicZ bool
 
+	// Open lists the sides that are interfaces to another lattice rather
+	// than boundaries: the lattice leaves their ghost values alone, and
+	// the caller (a Levels coupling) writes them before each Step. An open
+	// side replaces that side's axis, wall, end or periodic copy.
+	Open Sides
+	// RowOffset is the number of this lattice's rows between the axis and
+	// its row 0: row j lies at r = RowOffset + j + 1/2. A lattice with a
+	// positive RowOffset does not touch the axis, so its r-min side must be
+	// open.
+	RowOffset int
+
 	// Threads is the number of goroutines (0: GOMAXPROCS).
 	Threads int
 
@@ -60,6 +71,15 @@ func (c *Config) check() error {
 	}
 	if c.Threads < 0 {
 		return fmt.Errorf("lbm: %d threads: must be 0 (all) or positive", c.Threads)
+	}
+	if c.RowOffset < 0 {
+		return fmt.Errorf("lbm: row offset %d: must be zero or positive", c.RowOffset)
+	}
+	if c.RowOffset > 0 && c.Open&SideAxis == 0 {
+		return fmt.Errorf("lbm: row offset %d: a lattice away from the axis needs its r-min side open", c.RowOffset)
+	}
+	if c.PeriodicZ && c.Open&(SideZMin|SideZMax) != 0 {
+		return fmt.Errorf("lbm: periodic ends cannot also be open")
 	}
 	switch c.Collision {
 	case TRT, MRT, BGK:
@@ -97,3 +117,15 @@ func (c *Config) rates() (wp, wm float64) {
 	wm = 1 / (0.5 + lam/(c.Tau-0.5))
 	return wp, wm
 }
+
+// Sides is a set of the four sides of a lattice.
+type Sides uint8
+
+// The sides of a lattice: its ends at z-min and z-max, its r-min side (the
+// axis, for a lattice that touches it) and its r-max side (the wall).
+const (
+	SideZMin Sides = 1 << iota
+	SideZMax
+	SideAxis
+	SideWall
+)

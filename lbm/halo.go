@@ -7,7 +7,9 @@ package lbm
 //   - axis (ghost row j = -1): the mirror image of row 0, f_i(k,-1) =
 //     f_{mirror(i)}(k,0), specular reflection at r = 0 (METHODS.md 3.5.1);
 //   - ends: a periodic copy, or halfway bounce-back;
-//   - side wall (ghost row j = Nr): halfway bounce-back.
+//   - side wall (ghost row j = Nr): halfway bounce-back;
+//   - open sides (Config.Open): nothing; the coupling to the neighbouring
+//     level writes them (see Levels).
 //
 // Halfway bounce-back (Ladd 1994, J. Fluid Mech. 271, 285) in a pull scheme
 // reads f_i(x, t+1) = f*_{opp(i)}(x, t) when x - e_i is a wall node; each
@@ -42,6 +44,7 @@ func (s *Solver) fillHalo() {
 // so the workers do not share any.
 func endGhosts[T real](s *Solver, f *[Q][]T, j int) {
 	nz := s.nz
+	open := s.cfg.Open
 	if s.cfg.PeriodicZ {
 		for _, i := range [...]int{1, 5, 8} {
 			f[i][s.idx(-1, j)] = f[i][s.idx(nz-1, j)]
@@ -51,11 +54,15 @@ func endGhosts[T real](s *Solver, f *[Q][]T, j int) {
 		}
 		return
 	}
-	for _, i := range [...]int{1, 5, 8} { // left end, e_z = +1
-		f[i][s.idx(-1, j-Er[i])] = f[Opp[i]][s.idx(0, j)]
+	if open&SideZMin == 0 {
+		for _, i := range [...]int{1, 5, 8} { // left end, e_z = +1
+			f[i][s.idx(-1, j-Er[i])] = f[Opp[i]][s.idx(0, j)]
+		}
 	}
-	for _, i := range [...]int{3, 6, 7} { // right end, e_z = -1
-		f[i][s.idx(nz, j-Er[i])] = f[Opp[i]][s.idx(nz-1, j)]
+	if open&SideZMax == 0 {
+		for _, i := range [...]int{3, 6, 7} { // right end, e_z = -1
+			f[i][s.idx(nz, j-Er[i])] = f[Opp[i]][s.idx(nz-1, j)]
+		}
 	}
 }
 
@@ -63,8 +70,12 @@ func endGhosts[T real](s *Solver, f *[Q][]T, j int) {
 // (with closed ends, those of all rows) only when ends is true.
 func fillHalo[T real](s *Solver, f *[Q][]T, ends bool) {
 	nz, nr := s.nz, s.nr
+	open := s.cfg.Open
 	// Axis: only directions entering row 0 from below are read (e_r = +1).
 	for _, i := range [...]int{2, 5, 6} {
+		if open&SideAxis != 0 {
+			break
+		}
 		m := Mirror[i]
 		g := f[i][s.idx(0, -1) : s.idx(0, -1)+nz]
 		src := f[m][s.idx(0, 0) : s.idx(0, 0)+nz]
@@ -85,12 +96,12 @@ func fillHalo[T real](s *Solver, f *[Q][]T, ends bool) {
 	} else if ends {
 		for j := -1; j <= nr; j++ {
 			for _, i := range [...]int{1, 5, 8} { // left end, e_z = +1
-				if jd := j + Er[i]; jd >= 0 && jd < nr {
+				if jd := j + Er[i]; jd >= 0 && jd < nr && open&SideZMin == 0 {
 					f[i][s.idx(-1, j)] = f[Opp[i]][s.idx(0, jd)]
 				}
 			}
 			for _, i := range [...]int{3, 6, 7} { // right end, e_z = -1
-				if jd := j + Er[i]; jd >= 0 && jd < nr {
+				if jd := j + Er[i]; jd >= 0 && jd < nr && open&SideZMax == 0 {
 					f[i][s.idx(nz, j)] = f[Opp[i]][s.idx(nz-1, jd)]
 				}
 			}
@@ -99,6 +110,9 @@ func fillHalo[T real](s *Solver, f *[Q][]T, ends bool) {
 	// Side wall, e_r = -1 directions leave the ghost row toward row Nr-1:
 	// f_i(k, Nr) = f*_opp(i)(k + e_iz, Nr-1) for every k with k + e_iz a
 	// node, one contiguous copy per direction (i = 4, 7, 8: e_z = 0, -1, 1).
+	if open&SideWall != 0 {
+		return
+	}
 	src := s.idx(0, nr-1)
 	for _, i := range [...]int{4, 7, 8} {
 		dst := s.idx(-Ez[i], nr)

@@ -81,7 +81,7 @@ func New(cfg Config) (*Solver, error) {
 	}
 	s.rows = make([]rowConst, cfg.Nr)
 	for j := range s.rows {
-		r := float64(j) + 0.5
+		r := float64(cfg.RowOffset+j) + 0.5
 		s.rows[j].r = r
 		if cfg.Axisymmetric {
 			s.rows[j].invR = 1 / r

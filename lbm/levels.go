@@ -1,0 +1,612 @@
+package lbm
+
+import (
+	"fmt"
+	"math"
+)
+
+// Levels is a stack of nested lattices refined by 2 per level: level 0
+// covers the whole container, and each finer level l+1 covers a block of
+// level l's cells (see Block) with cells half as wide. Acoustic scaling
+// (METHODS.md 15.1): dt halves with dx, so the lattice sound speed, the
+// Mach number and the acoustic limit are the same on every level and a
+// level takes two steps per step of its parent; the lattice viscosity
+// halves per coarser level, tau - 1/2 halving with it, and every level
+// keeps the TRT magic parameter.
+//
+// The levels are coupled after Dupuis & Chopard 2003 (Phys. Rev. E 67,
+// 066707): the populations are split into an equilibrium, continuous
+// across an interface, and a non-equilibrium part, which scales with
+// tau dt and is rescaled on the way across; the fine-to-coarse transfer
+// averages the four fine cells of a coarse cell, the filtering of
+// Lagrava, Malaspinas, Latt & Chopard 2012 (J. Comput. Phys. 231, 4808).
+// Why this scheme: our nodes are cell-centred (METHODS.md 15.2), so coarse
+// and fine nodes never coincide and every transfer interpolates; the
+// rescaling keeps the viscous stress continuous across an interface along
+// the flow, which the volumetric scheme of Rohde et al. 2006, copying
+// populations unscaled, does not (its stress jumps by the ratio of the
+// levels' tau dt, about 2 near tau = 1/2). The split of TRT is per part:
+// the symmetric non-equilibrium scales with tau+ dt, the antisymmetric
+// one with tau- dt (METHODS.md 15.2). As the populations are stored after
+// collision, the factors are those of the post-collision form,
+// (tau_f - 1)/(2 (tau_c - 1)) coarse to fine and its inverse (Filippova &
+// Haenel 1998, J. Comput. Phys. 147, 219), which is why no level may have
+// a relaxation time too close to 1 (NewLevels says so).
+//
+// Coarse to fine: the ghost cells around a fine block are filled, before
+// each fine step, from the coarse post-collision populations by
+// tensor-product quadratic interpolation in space (3 x 3 coarse cells) and
+// linear interpolation in time between the coarse step's start and end
+// (the fine level's second step falls halfway). Fine to coarse: after the
+// fine level's two steps, every coarse cell under the fine block gets the
+// r-weighted mean of its four fine cells (METHODS.md 15.3), rescaled. The
+// scheme conserves neither mass nor momentum exactly across an interface
+// (the interpolation does not); Levels.Mass reports the drift.
+//
+// A Levels step is one step of level 0: 2^l steps of level l. Every
+// transfer is serial and in a fixed order, so results do not depend on the
+// number of goroutines.
+type Levels struct {
+	solvers []*Solver
+	blocks  []Block
+	links   []*coupling // links[l] couples level l to level l+1
+}
+
+// Block places a finer level inside its parent level: the parent cells
+// [Z0, Z0+Nz) x [R0, R0+Nr), which the finer level covers with 2Nz x 2Nr
+// cells of its own. A side of the block either lies on the parent's
+// boundary of the same side (the block touches the axis, the wall or an
+// end, which it then has too) or at least two parent cells inside the
+// parent (so that the interpolation's stencil stays in the parent's
+// fluid); a block spanning the whole length of a periodic parent is
+// periodic too.
+type Block struct {
+	Z0, R0 int
+	Nz, Nr int
+}
+
+// NewLevels makes the levels: base is level 0 (the whole container, its
+// Tau the coarsest level's), and blocks[l] places level l+1 in level l.
+// Each finer level has Tau - 1/2 doubled and the rest of base's
+// configuration. TRT and BGK are supported.
+func NewLevels(base Config, blocks []Block) (*Levels, error) {
+	if base.Collision == MRT && len(blocks) > 0 {
+		return nil, fmt.Errorf("lbm: levels: MRT is not supported with refinement (choose TRT)")
+	}
+	if base.Open != 0 || base.RowOffset != 0 {
+		return nil, fmt.Errorf("lbm: levels: level 0 must cover the whole container (no open sides, no row offset)")
+	}
+	h := &Levels{blocks: append([]Block(nil), blocks...)}
+	cfg := base
+	s, err := New(cfg)
+	if err != nil {
+		return nil, fmt.Errorf("lbm: level 0: %w", err)
+	}
+	h.solvers = append(h.solvers, s)
+	for l, b := range blocks {
+		child, err := childConfig(cfg, b)
+		if err != nil {
+			h.Close()
+			return nil, fmt.Errorf("lbm: level %d block %+v: %w", l+1, b, err)
+		}
+		cs, err := New(child)
+		if err != nil {
+			h.Close()
+			return nil, fmt.Errorf("lbm: level %d: %w", l+1, err)
+		}
+		h.solvers = append(h.solvers, cs)
+		c, err := newCoupling(h.solvers[l], cs, b)
+		if err != nil {
+			h.Close()
+			return nil, fmt.Errorf("lbm: levels %d and %d: %w", l, l+1, err)
+		}
+		h.links = append(h.links, c)
+		cfg = child
+	}
+	return h, nil
+}
+
+// childConfig returns the configuration of the level that b places in the
+// level of configuration p.
+func childConfig(p Config, b Block) (Config, error) {
+	if b.Nz < 1 || b.Nr < 1 || b.Z0 < 0 || b.R0 < 0 || b.Z0+b.Nz > p.Nz || b.R0+b.Nr > p.Nr {
+		return Config{}, fmt.Errorf("does not fit in its parent's %dx%d cells", p.Nz, p.Nr)
+	}
+	c := p
+	c.Nz, c.Nr = 2*b.Nz, 2*b.Nr
+	c.Tau = 0.5 + 2*(p.Tau-0.5)
+	c.RowOffset = 2 * (p.RowOffset + b.R0)
+	c.Open = 0
+	c.PeriodicZ = false
+	// side reports whether a side at distance gap from the parent's side
+	// of the same kind is open; it fails where the gap is 1 (the stencil
+	// would reach the parent's ghosts) or the parent's side is itself open
+	// and touched.
+	side := func(name string, gap int, parentOpen bool) (bool, error) {
+		switch {
+		case gap == 0 && parentOpen:
+			return false, fmt.Errorf("its %s side lies on the parent's open %s side: keep it at least 2 parent cells inside", name, name)
+		case gap == 0:
+			return false, nil
+		case gap < 2:
+			return false, fmt.Errorf("its %s side is %d parent cell from the parent's: make it 0 (touching) or at least 2", name, gap)
+		}
+		return true, nil
+	}
+	set := func(s Sides, open bool) {
+		if open {
+			c.Open |= s
+		}
+	}
+	if p.PeriodicZ {
+		if b.Z0 == 0 && b.Nz == p.Nz {
+			c.PeriodicZ = true
+		} else {
+			c.Open |= SideZMin | SideZMax // the stencil wraps around
+		}
+	} else {
+		o, err := side("z-min", b.Z0, p.Open&SideZMin != 0)
+		if err != nil {
+			return Config{}, err
+		}
+		set(SideZMin, o)
+		if o, err = side("z-max", p.Nz-b.Z0-b.Nz, p.Open&SideZMax != 0); err != nil {
+			return Config{}, err
+		}
+		set(SideZMax, o)
+	}
+	o, err := side("r-min", b.R0, p.Open&SideAxis != 0)
+	if err != nil {
+		return Config{}, err
+	}
+	set(SideAxis, o)
+	if o, err = side("r-max", p.Nr-b.R0-b.Nr, p.Open&SideWall != 0); err != nil {
+		return Config{}, err
+	}
+	set(SideWall, o)
+	return c, nil
+}
+
+// Close stops the goroutines of every level.
+func (h *Levels) Close() {
+	for _, s := range h.solvers {
+		s.Close()
+	}
+}
+
+// Len returns the number of levels.
+func (h *Levels) Len() int { return len(h.solvers) }
+
+// Level returns level l's lattice (0 the coarsest). Its coordinates are its
+// own: see Block for where it lies in its parent.
+func (h *Levels) Level(l int) *Solver { return h.solvers[l] }
+
+// Block returns the block that places level l (l >= 1) in level l-1.
+func (h *Levels) Block(l int) Block { return h.blocks[l-1] }
+
+// Finest returns the finest level's lattice.
+func (h *Levels) Finest() *Solver { return h.solvers[len(h.solvers)-1] }
+
+// SetForce sets the uniform body-force density, in level 0's lattice units,
+// on every level: level l gets it divided by 2^l (a force density in
+// lattice units scales with dt^2/dx).
+func (h *Levels) SetForce(gz, gr float64) {
+	for l, s := range h.solvers {
+		f := math.Ldexp(1, -l)
+		s.SetForce(gz*f, gr*f)
+	}
+}
+
+// Fields computes level l's fields (see Solver.Fields) at the end of the
+// last Step: its ghost cells are filled first from its parent's current
+// populations, as the next step would find them at its start. It changes
+// no population that a step reads.
+func (h *Levels) Fields(l int, dst *Fields) *Fields {
+	if l > 0 {
+		h.links[l-1].fillGhosts(1)
+	}
+	return h.solvers[l].Fields(dst)
+}
+
+// Step advances every level by one step of level 0.
+func (h *Levels) Step() { h.advance(0) }
+
+func (h *Levels) advance(l int) {
+	s := h.solvers[l]
+	if l == len(h.links) {
+		s.Step()
+		return
+	}
+	c := h.links[l]
+	c.save()
+	s.Step()
+	c.fillGhosts(0)
+	h.advance(l + 1)
+	c.fillGhosts(0.5)
+	h.advance(l + 1)
+	c.restrict()
+}
+
+// Mass returns the mass of the fluid, sum over fluid nodes of 2 pi r rho
+// dA (planar: rho dA) in level 0's lattice units, each region counted on
+// the finest level that covers it, with rho the sum of the post-collision
+// populations. It is summed in a fixed order.
+func (h *Levels) Mass() float64 {
+	var m float64
+	for l, s := range h.solvers {
+		scale := math.Ldexp(1, -l) // dx of level l in level 0's units
+		var cover *Block
+		if l < len(h.blocks) {
+			cover = &h.blocks[l]
+		}
+		for j := 0; j < s.nr; j++ {
+			var row float64
+			for k := 0; k < s.nz; k++ {
+				if cover != nil && k >= cover.Z0 && k < cover.Z0+cover.Nz && j >= cover.R0 && j < cover.R0+cover.Nr {
+					continue
+				}
+				n := s.idx(k, j)
+				if s.solid[n] {
+					continue
+				}
+				rho := 1.0
+				for i := 0; i < Q; i++ {
+					rho += s.pop(i, n)
+				}
+				row += rho
+			}
+			w := scale * scale
+			if s.cfg.Axisymmetric {
+				w *= 2 * math.Pi * s.rows[j].r * scale
+			}
+			m += row * w
+		}
+	}
+	return m
+}
+
+// coupling joins a parent level to its child.
+type coupling struct {
+	parent, child *Solver
+	b             Block
+
+	ring []sample     // parent cells the child's ghosts interpolate from
+	prev [Q][]float64 // their populations at the start of the parent's step
+	gh   []ghost      // the child's ghost cells
+	axis []int        // child columns whose ghost below the axis mirrors row 0
+	cov  []coverCell  // parent cells under the child
+	aP   float64      // coarse-to-fine factor of the symmetric non-equilibrium
+	aM   float64      // and of the antisymmetric one
+	bP   float64      // fine-to-coarse factors: 1/aP, 1/aM
+	bM   float64
+}
+
+// sample is a parent cell read for interpolation: its storage index and
+// whether it is the mirror image of a cell across the axis.
+type sample struct {
+	n   int
+	mir bool
+}
+
+// ghost is a child ghost cell: its storage index and its 3 x 3 stencil of
+// ring samples with their weights.
+type ghost struct {
+	dst int
+	src [9]int32
+	w   [9]float64
+}
+
+// coverCell is a parent cell under the child: its storage index and the
+// 4 x 4 child cells whose cubic interpolation gives its centre's value,
+// with their weights and whether each is mirrored across the axis.
+type coverCell struct {
+	dst int
+	src [16]int
+	w   [16]float64
+	mir [16]bool
+}
+
+// tauCloseToOne is how close to 1 a relaxation time may come on a refined
+// lattice: the post-collision non-equilibrium is (1 - 1/tau) times the
+// pre-collision one, so near tau = 1 it carries almost no stress and the
+// rescaling divides by almost zero.
+const tauCloseToOne = 0.05
+
+func newCoupling(p, c *Solver, b Block) (*coupling, error) {
+	cp := &coupling{parent: p, child: c, b: b}
+	tp := [2]float64{1 / p.wp, 1 / p.wm}
+	tc := [2]float64{1 / c.wp, 1 / c.wm}
+	for x, name := range []string{"tau+", "tau-"} {
+		for _, t := range []float64{tp[x], tc[x]} {
+			if math.Abs(t-1) < tauCloseToOne {
+				return nil, fmt.Errorf("%s = %.4g on a refined level is within %g of 1, where the post-collision populations carry no stress to rescale: choose another tau (or the magic parameter)", name, t, tauCloseToOne)
+			}
+		}
+	}
+	cp.aP = (tc[0] - 1) / (2 * (tp[0] - 1))
+	cp.aM = (tc[1] - 1) / (2 * (tp[1] - 1))
+	cp.bP, cp.bM = 1/cp.aP, 1/cp.aM
+	cp.build()
+	for i := range cp.prev {
+		cp.prev[i] = make([]float64, len(cp.ring))
+	}
+	return cp, nil
+}
+
+// stencil1 returns the three parent cells and the quadratic Lagrange
+// weights for the child cell whose centre lies at x (in parent cells:
+// cell C spans [C, C+1)), using cells lo..hi only (lo may be negative on
+// the axis, where cells are mirrored); periodic wraps modulo n instead.
+func stencil1(x float64, lo, hi, n int, periodic bool) (c0 int, w [3]float64) {
+	centre := int(math.Floor(x))
+	c0 = centre - 1
+	if !periodic {
+		c0 = max(lo, min(c0, hi-2))
+	}
+	t := x - (float64(c0) + 0.5) // position relative to cell c0's centre
+	w[0] = (t - 1) * (t - 2) / 2
+	w[1] = -t * (t - 2)
+	w[2] = t * (t - 1) / 2
+	return c0, w
+}
+
+// build lists the ring samples, the ghosts and the covered cells.
+func (cp *coupling) build() {
+	p, c, b := cp.parent, cp.child, cp.b
+	open := c.cfg.Open
+	index := map[sample]int32{}
+	add := func(k, j int) int32 {
+		if p.cfg.PeriodicZ {
+			k = (k%p.nz + p.nz) % p.nz
+		}
+		s := sample{n: p.idx(k, j)}
+		if j < 0 { // mirror across the axis: cell -1-j
+			s = sample{n: p.idx(k, -1-j), mir: true}
+		}
+		if x, ok := index[s]; ok {
+			return x
+		}
+		index[s] = int32(len(cp.ring))
+		cp.ring = append(cp.ring, s)
+		return index[s]
+	}
+	rlo := 0
+	if p.cfg.Open&SideAxis == 0 {
+		rlo = -2 // mirrored cells below the axis
+	}
+	ghostAt := func(k, j int) {
+		x := float64(b.Z0) + (float64(k)+0.5)/2
+		y := float64(b.R0) + (float64(j)+0.5)/2
+		kz, wz := stencil1(x, 0, p.nz-1, p.nz, p.cfg.PeriodicZ)
+		jr, wr := stencil1(y, rlo, p.nr-1, p.nr, false)
+		g := ghost{dst: c.idx(k, j)}
+		for a := 0; a < 3; a++ {
+			for d := 0; d < 3; d++ {
+				g.src[3*a+d] = add(kz+d, jr+a)
+				g.w[3*a+d] = wz[d] * wr[a]
+			}
+		}
+		cp.gh = append(cp.gh, g)
+	}
+	jl, jh := 0, c.nr-1
+	if open&SideAxis != 0 {
+		jl = -1
+	}
+	if open&SideWall != 0 {
+		jh = c.nr
+	}
+	kl, kh := 0, c.nz-1
+	if open&SideZMin != 0 {
+		kl = -1
+	}
+	if open&SideZMax != 0 {
+		kh = c.nz
+	}
+	for _, side := range []struct {
+		s Sides
+		k int
+	}{{SideZMin, -1}, {SideZMax, c.nz}} {
+		if open&side.s == 0 {
+			continue
+		}
+		for j := jl; j <= jh; j++ {
+			ghostAt(side.k, j)
+		}
+		if open&SideAxis == 0 && c.cfg.RowOffset == 0 {
+			cp.axis = append(cp.axis, side.k)
+		}
+	}
+	for _, side := range []struct {
+		s Sides
+		j int
+	}{{SideAxis, -1}, {SideWall, c.nr}} {
+		if open&side.s == 0 {
+			continue
+		}
+		for k := kl; k <= kh; k++ {
+			if k == -1 || k == c.nz {
+				continue // the corner, done with its column
+			}
+			ghostAt(k, side.j)
+		}
+	}
+	// The parent cells under the child, but for those along an open side
+	// (the parent's own step keeps them: they are where the parent's
+	// dynamics meets the restricted values).
+	k0, k1 := b.Z0, b.Z0+b.Nz
+	if open&SideZMin != 0 {
+		k0++
+	}
+	if open&SideZMax != 0 {
+		k1--
+	}
+	j0, j1 := b.R0, b.R0+b.Nr
+	if open&SideAxis != 0 {
+		j0++
+	}
+	if open&SideWall != 0 {
+		j1--
+	}
+	axis := open&SideAxis == 0 && c.cfg.RowOffset == 0
+	for J := j0; J < j1; J++ {
+		jr, wr, mr := stencil4(2*(J-b.R0), c.nr, false, axis)
+		for K := k0; K < k1; K++ {
+			kz, wz, _ := stencil4(2*(K-b.Z0), c.nz, c.cfg.PeriodicZ, false)
+			cc := coverCell{dst: p.idx(K, J)}
+			for a := 0; a < 4; a++ {
+				for d := 0; d < 4; d++ {
+					x := 4*a + d
+					cc.src[x] = c.idx(kz[d], jr[a])
+					cc.mir[x] = mr[a]
+					cc.w[x] = wz[d] * wr[a]
+				}
+			}
+			cp.cov = append(cp.cov, cc)
+		}
+	}
+}
+
+// stencil4 returns the four child cells and the cubic Lagrange weights
+// that give the value at the centre of the parent cell whose first child
+// cell is m (the point m + 1/2 in child cells, halfway between m and m+1),
+// from cells m-1 .. m+2 of a row of n: wrapped when periodic, mirrored
+// across the axis below 0 when axis, else shifted to stay inside 0..n-1
+// (one-sided). Interior weights are (-1, 9, 9, -1)/16.
+func stencil4(m, n int, periodic, axis bool) (cell [4]int, w [4]float64, mir [4]bool) {
+	lo := m - 1
+	if !periodic && !axis {
+		lo = max(0, min(lo, n-4))
+	}
+	if !periodic && axis {
+		lo = min(lo, n-4)
+	}
+	x := float64(m) + 0.5
+	for a := 0; a < 4; a++ {
+		p := lo + a
+		l := 1.0
+		for b := 0; b < 4; b++ {
+			if b != a {
+				l *= (x - float64(lo+b)) / float64(a-b)
+			}
+		}
+		w[a] = l
+		switch {
+		case periodic:
+			p = (p%n + n) % n
+		case p < 0: // axis: the mirror image of cell -1-p
+			p, mir[a] = -1-p, true
+		}
+		cell[a] = p
+	}
+	return cell, w, mir
+}
+
+// read returns population i of ring sample s of the parent's current
+// lattice.
+func (cp *coupling) read(i int, s sample) float64 {
+	if s.mir {
+		return cp.parent.pop(Mirror[i], s.n)
+	}
+	return cp.parent.pop(i, s.n)
+}
+
+// save keeps the ring's populations before the parent steps.
+func (cp *coupling) save() {
+	for m, s := range cp.ring {
+		for i := 0; i < Q; i++ {
+			cp.prev[i][m] = cp.read(i, s)
+		}
+	}
+}
+
+// fillGhosts writes the child's ghost cells at the fraction theta of the
+// parent's step (0: its start, from the saved ring; 1/2: halfway, the mean
+// of the saved ring and the parent's new populations; 1: its end).
+func (cp *coupling) fillGhosts(theta float64) {
+	c := cp.child
+	var v [Q]float64
+	for g := range cp.gh {
+		gh := &cp.gh[g]
+		for i := 0; i < Q; i++ {
+			var sum float64
+			for x, m := range gh.src {
+				f := cp.prev[i][m]
+				if theta != 0 {
+					f = (1-theta)*f + theta*cp.read(i, cp.ring[m])
+				}
+				sum += gh.w[x] * f
+			}
+			v[i] = sum
+		}
+		rescale(&v, cp.aP, cp.aM)
+		for i := 0; i < Q; i++ {
+			c.setPop(i, gh.dst, v[i])
+		}
+	}
+	for _, k := range cp.axis {
+		src, dst := c.idx(k, 0), c.idx(k, -1)
+		for i := 0; i < Q; i++ {
+			c.setPop(i, dst, c.pop(Mirror[i], src))
+		}
+	}
+}
+
+// restrict writes every parent cell under the child from its four child
+// cells; a cell with a solid child cell is set to rest.
+func (cp *coupling) restrict() {
+	p, c := cp.parent, cp.child
+	var v [Q]float64
+	for x := range cp.cov {
+		cc := &cp.cov[x]
+		solid := false
+		for _, n := range cc.src {
+			solid = solid || c.solid[n]
+		}
+		if solid {
+			for i := 0; i < Q; i++ {
+				p.setPop(i, cc.dst, 0)
+			}
+			continue
+		}
+		for i := 0; i < Q; i++ {
+			var sum float64
+			for y, n := range cc.src {
+				d := i
+				if cc.mir[y] {
+					d = Mirror[i]
+				}
+				sum += cc.w[y] * c.pop(d, n)
+			}
+			v[i] = sum
+		}
+		rescale(&v, cp.bP, cp.bM)
+		for i := 0; i < Q; i++ {
+			p.setPop(i, cc.dst, v[i])
+		}
+	}
+	p.haloStale = true // the end ghosts copy restricted cells
+}
+
+// rescale splits the deviations v into the equilibrium of their own
+// density and momentum and the rest, and scales the rest's symmetric part
+// by sp and its antisymmetric part by sm (Dupuis & Chopard 2003). Density
+// and momentum are unchanged.
+func rescale(v *[Q]float64, sp, sm float64) {
+	drho := v[0] + v[1] + v[2] + v[3] + v[4] + v[5] + v[6] + v[7] + v[8]
+	jz := v[1] - v[3] + v[5] - v[6] - v[7] + v[8]
+	jr := v[2] - v[4] + v[5] + v[6] - v[7] - v[8]
+	rho := 1 + drho
+	uz, ur := jz/rho, jr/rho
+	var neq [Q]float64
+	var eq [Q]float64
+	for i := 0; i < Q; i++ {
+		eq[i] = feqDeviation(i, rho, uz, ur)
+		neq[i] = v[i] - eq[i]
+	}
+	for i := 0; i < Q; i++ {
+		o := Opp[i]
+		sym := 0.5 * (neq[i] + neq[o])
+		anti := 0.5 * (neq[i] - neq[o])
+		v[i] = eq[i] + sp*sym + sm*anti
+	}
+}
