@@ -50,6 +50,9 @@ type Levels struct {
 	solvers []*Solver
 	blocks  []Block
 	links   []*coupling // links[l] couples level l to level l+1
+	// force, when set, gives the body-force density at a time (see
+	// SetForceFunc)
+	force func(t float64) (gz, gr float64)
 }
 
 // Block places a finer level inside its parent level: the parent cells
@@ -208,11 +211,23 @@ func (h *Levels) Fields(l int, dst *Fields) *Fields {
 	return h.solvers[l].Fields(dst)
 }
 
+// SetForceFunc makes the body-force density depend on time: before each
+// step of each level, fn is called with the time of that step's start in
+// level 0's steps (level l's steps fall at multiples of 2^-l) and its
+// value, in level 0's lattice units, is set on that level as SetForce
+// does. A nil fn keeps the force last set.
+func (h *Levels) SetForceFunc(fn func(t float64) (gz, gr float64)) { h.force = fn }
+
 // Step advances every level by one step of level 0.
 func (h *Levels) Step() { h.advance(0) }
 
 func (h *Levels) advance(l int) {
 	s := h.solvers[l]
+	if h.force != nil {
+		scale := math.Ldexp(1, -l)
+		gz, gr := h.force(float64(s.Steps()) * scale)
+		s.SetForce(gz*scale, gr*scale)
+	}
 	if l == len(h.links) {
 		s.Step()
 		return
