@@ -86,3 +86,36 @@ func TestLevelsPoiseuille(t *testing.T) {
 		}
 	}
 }
+
+// TestLevelsThreads: the transfers between levels are serial and in a
+// fixed order and each level's steps are bit-for-bit independent of the
+// number of goroutines, so the levels are too (the project's rule).
+func TestLevelsThreads(t *testing.T) {
+	run := func(threads int) [][Q][]float64 {
+		h, err := NewLevels(Config{Nz: 16, Nr: 8, Tau: 0.55, Axisymmetric: true, Threads: threads},
+			[]Block{{Z0: 4, R0: 0, Nz: 8, Nr: 4}, {Z0: 2, R0: 0, Nz: 8, Nr: 4}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer h.Close()
+		h.SetForceFunc(func(t float64) (float64, float64) { return 1e-5 * math.Cos(0.05*t), 0 })
+		for n := 0; n < 200; n++ {
+			h.Step()
+		}
+		var st [][Q][]float64
+		for l := 0; l < h.Len(); l++ {
+			st = append(st, h.Level(l).State())
+		}
+		return st
+	}
+	a, b := run(1), run(3)
+	for l := range a {
+		for i := 0; i < Q; i++ {
+			for n := range a[l][i] {
+				if math.Float64bits(a[l][i][n]) != math.Float64bits(b[l][i][n]) {
+					t.Fatalf("level %d population %d node %d: %v with 1 goroutine, %v with 3", l, i, n, a[l][i][n], b[l][i][n])
+				}
+			}
+		}
+	}
+}
