@@ -115,11 +115,15 @@ func refinedWomersleyNorm(R int, alpha float64, kind string, o Options) (float64
 }
 
 // reasonRefinedWom is why the refined Womersley rows are known
-// disagreements for now: measured when the scheme was written (R = 10 and
-// 20 on level 0), its error is 3 to 7 times the bound, spread over the
-// whole pipe rather than at the interface, with the observed order 2
-// along the flow but 1.0 across it at alpha = 3.
-const reasonRefinedWom = "the level interface adds an error 3-7 times the bound (issue 17: the transfer is being studied); the bound is 1.5 x the uniform lattice's error at the finest spacing"
+// disagreements for now. Measured when written (level-0 radius 10 and 20,
+// alpha 3 and 8): the error is 5 to 12 times the bound, spread over the
+// whole pipe rather than at the interface, and falls at order about 2
+// (1.6 across the flow at alpha = 3), so the interface's error is of
+// second order with a large constant. Exchanging the force's half in the
+// stored momentum (lbm forceAt), which made Poiseuille exact, doubled it
+// (3 to 7 times before): the time-dependent part of the transfer is the
+// suspect.
+const reasonRefinedWom = "the level interface adds an error 5-12 times the bound, of order 2 (issue 17: the transfer of time-dependent flow is being studied); the bound is 1.5 x the uniform lattice's error at the finest spacing"
 
 // refinedWomersleyRow compares the two-level Womersley error at level-0
 // radius R with 1.5 times the uniform lattice's at radius 2R.
