@@ -136,37 +136,34 @@ func childConfig(p Config, b Block) (Config, error) {
 		}
 		return true, nil
 	}
-	set := func(s Sides, open bool) {
-		if open {
-			c.Open |= s
-		}
-	}
 	if p.PeriodicZ {
 		if b.Z0 == 0 && b.Nz == p.Nz {
 			c.PeriodicZ = true
 		} else {
 			c.Open |= SideZMin | SideZMax // the stencil wraps around
 		}
-	} else {
-		o, err := side("z-min", b.Z0, p.Open&SideZMin != 0)
+	}
+	for _, sd := range []struct {
+		s    Sides
+		name string
+		gap  int
+	}{
+		{SideZMin, "z-min", b.Z0},
+		{SideZMax, "z-max", p.Nz - b.Z0 - b.Nz},
+		{SideAxis, "r-min", b.R0},
+		{SideWall, "r-max", p.Nr - b.R0 - b.Nr},
+	} {
+		if p.PeriodicZ && sd.s&(SideZMin|SideZMax) != 0 {
+			continue
+		}
+		open, err := side(sd.name, sd.gap, p.Open&sd.s != 0)
 		if err != nil {
 			return Config{}, err
 		}
-		set(SideZMin, o)
-		if o, err = side("z-max", p.Nz-b.Z0-b.Nz, p.Open&SideZMax != 0); err != nil {
-			return Config{}, err
+		if open {
+			c.Open |= sd.s
 		}
-		set(SideZMax, o)
 	}
-	o, err := side("r-min", b.R0, p.Open&SideAxis != 0)
-	if err != nil {
-		return Config{}, err
-	}
-	set(SideAxis, o)
-	if o, err = side("r-max", p.Nr-b.R0-b.Nr, p.Open&SideWall != 0); err != nil {
-		return Config{}, err
-	}
-	set(SideWall, o)
 	return c, nil
 }
 
@@ -186,9 +183,6 @@ func (h *Levels) Level(l int) *Solver { return h.solvers[l] }
 
 // Block returns the block that places level l (l >= 1) in level l-1.
 func (h *Levels) Block(l int) Block { return h.blocks[l-1] }
-
-// Finest returns the finest level's lattice.
-func (h *Levels) Finest() *Solver { return h.solvers[len(h.solvers)-1] }
 
 // SetForce sets the uniform body-force density, in level 0's lattice units,
 // on every level: level l gets it divided by 2^l (a force density in
@@ -242,6 +236,16 @@ func (h *Levels) advance(l int) {
 	c.restrict()
 }
 
+// Covered reports whether node (k, j) of level l lies under the next finer
+// level, which then holds that region.
+func (h *Levels) Covered(l, k, j int) bool {
+	if l >= len(h.blocks) {
+		return false
+	}
+	b := h.blocks[l]
+	return k >= b.Z0 && k < b.Z0+b.Nz && j >= b.R0 && j < b.R0+b.Nr
+}
+
 // Mass returns the mass of the fluid, sum over fluid nodes of 2 pi r rho
 // dA (planar: rho dA) in level 0's lattice units, each region counted on
 // the finest level that covers it, with rho the sum of the post-collision
@@ -250,14 +254,10 @@ func (h *Levels) Mass() float64 {
 	var m float64
 	for l, s := range h.solvers {
 		scale := math.Ldexp(1, -l) // dx of level l in level 0's units
-		var cover *Block
-		if l < len(h.blocks) {
-			cover = &h.blocks[l]
-		}
 		for j := 0; j < s.nr; j++ {
 			var row float64
 			for k := 0; k < s.nz; k++ {
-				if cover != nil && k >= cover.Z0 && k < cover.Z0+cover.Nz && j >= cover.R0 && j < cover.R0+cover.Nr {
+				if h.Covered(l, k, j) {
 					continue
 				}
 				n := s.idx(k, j)
@@ -294,6 +294,9 @@ type coupling struct {
 	aM   float64      // and of the antisymmetric one
 	bP   float64      // fine-to-coarse factors: 1/aP, 1/aM
 	bM   float64
+	// endCover: a restricted cell lies in the parent's first or last
+	// column, which the parent's end ghosts copy
+	endCover bool
 }
 
 // sample is a parent cell read for interpolation: its storage index and
@@ -412,13 +415,6 @@ func (cp *coupling) build() {
 	if open&SideWall != 0 {
 		jh = c.nr
 	}
-	kl, kh := 0, c.nz-1
-	if open&SideZMin != 0 {
-		kl = -1
-	}
-	if open&SideZMax != 0 {
-		kh = c.nz
-	}
 	for _, side := range []struct {
 		s Sides
 		k int
@@ -440,10 +436,7 @@ func (cp *coupling) build() {
 		if open&side.s == 0 {
 			continue
 		}
-		for k := kl; k <= kh; k++ {
-			if k == -1 || k == c.nz {
-				continue // the corner, done with its column
-			}
+		for k := 0; k < c.nz; k++ { // the corners are done with their columns
 			ghostAt(k, side.j)
 		}
 	}
@@ -479,6 +472,7 @@ func (cp *coupling) build() {
 				}
 			}
 			cp.cov = append(cp.cov, cc)
+			cp.endCover = cp.endCover || K == 0 || K == p.nz-1
 		}
 	}
 }
@@ -603,7 +597,9 @@ func (cp *coupling) restrict() {
 			p.setPop(i, cc.dst, v[i])
 		}
 	}
-	p.haloStale = true // the end ghosts copy restricted cells
+	if cp.endCover {
+		p.haloStale = true // the end ghosts copy restricted cells
+	}
 }
 
 // forceAt returns the force density that level s's collision put into the

@@ -320,40 +320,39 @@ func search(s setup, bisect int) (threshold, error) {
 		}
 		return o, err
 	}
-	for u := scanStart; u <= scanMax*(1+1e-9); u *= 2 {
+	// probe runs at u and moves the bracket's end that u belongs to; it
+	// reports whether u was stable.
+	probe := func(u float64) (bool, error) {
 		o, err := try(u)
 		if err != nil {
-			return th, err
-		}
-		if !o.stable {
-			th.hi, th.why = u, o.reason
-			break
-		}
-		th.lo, th.atLo = u, o
-	}
-	if th.hi == 0 {
-		// Stable up to the cap: the scan's last point is 0.16; try the cap too.
-		o, err := try(scanMax)
-		if err != nil {
-			return th, err
-		}
-		if o.stable {
-			th.lo, th.atLo = scanMax, o
-		} else {
-			th.hi, th.why = scanMax, o.reason
-		}
-	}
-	// Unstable already at the scan start: halve down to scanMin.
-	for th.lo == 0 && th.hi > scanMin {
-		u := th.hi / 2
-		o, err := try(u)
-		if err != nil {
-			return th, err
+			return false, err
 		}
 		if o.stable {
 			th.lo, th.atLo = u, o
 		} else {
 			th.hi, th.why = u, o.reason
+		}
+		return o.stable, nil
+	}
+	for u := scanStart; u <= scanMax*(1+1e-9); u *= 2 {
+		stable, err := probe(u)
+		if err != nil {
+			return th, err
+		}
+		if !stable {
+			break
+		}
+	}
+	if th.hi == 0 {
+		// Stable up to the cap: the scan's last point is 0.16; try the cap too.
+		if _, err := probe(scanMax); err != nil {
+			return th, err
+		}
+	}
+	// Unstable already at the scan start: halve down to scanMin.
+	for th.lo == 0 && th.hi > scanMin {
+		if _, err := probe(th.hi / 2); err != nil {
+			return th, err
 		}
 	}
 	if th.lo == 0 {
@@ -361,15 +360,8 @@ func search(s setup, bisect int) (threshold, error) {
 		return th, nil // unstable down to scanMin: no bracket
 	}
 	for i := 0; i < bisect && th.hi > 0; i++ {
-		u := math.Sqrt(th.lo * th.hi)
-		o, err := try(u)
-		if err != nil {
+		if _, err := probe(math.Sqrt(th.lo * th.hi)); err != nil {
 			return th, err
-		}
-		if o.stable {
-			th.lo, th.atLo = u, o
-		} else {
-			th.hi, th.why = u, o.reason
 		}
 	}
 	th.wall = time.Since(t0)

@@ -40,11 +40,8 @@ func eachNode(h *lbm.Levels, fields []*lbm.Fields, fn func(uz, r, dA float64)) {
 		row0 := h.Level(l).Config().RowOffset
 		for j := 0; j < f.Nr; j++ {
 			for k := 0; k < f.Nz; k++ {
-				if l+1 < h.Len() {
-					b := h.Block(l + 1)
-					if k >= b.Z0 && k < b.Z0+b.Nz && j >= b.R0 && j < b.R0+b.Nr {
-						continue
-					}
+				if h.Covered(l, k, j) {
+					continue
 				}
 				fn(f.Uz[f.At(k, j)], (float64(row0+j)+0.5)*dx, dx*dx)
 			}
