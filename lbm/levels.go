@@ -3,6 +3,7 @@ package lbm
 import (
 	"fmt"
 	"math"
+	"time"
 )
 
 // Levels is a stack of nested lattices refined by 2 per level: level 0
@@ -17,9 +18,7 @@ import (
 // The levels are coupled after Dupuis & Chopard 2003 (Phys. Rev. E 67,
 // 066707): the populations are split into an equilibrium, continuous
 // across an interface, and a non-equilibrium part, which scales with
-// tau dt and is rescaled on the way across; the fine-to-coarse transfer
-// averages the four fine cells of a coarse cell, the filtering of
-// Lagrava, Malaspinas, Latt & Chopard 2012 (J. Comput. Phys. 231, 4808).
+// tau dt and is rescaled on the way across.
 // Why this scheme: our nodes are cell-centred (METHODS.md 15.2), so coarse
 // and fine nodes never coincide and every transfer interpolates; the
 // rescaling keeps the viscous stress continuous across an interface along
@@ -37,9 +36,12 @@ import (
 // each fine step, from the coarse post-collision populations by
 // tensor-product quadratic interpolation in space (3 x 3 coarse cells) and
 // linear interpolation in time between the coarse step's start and end
-// (the fine level's second step falls halfway). Fine to coarse: after the
-// fine level's two steps, every coarse cell under the fine block gets the
-// r-weighted mean of its four fine cells (METHODS.md 15.3), rescaled. The
+// (the fine level's first collision streams ghosts of halfway through the
+// coarse step, its second those of the end). Fine to coarse: right after
+// the fine level's first step, which brings it to the coarse level's time,
+// every coarse cell under the fine block (but those along an open side,
+// which the coarse step keeps) gets the cubic (4 x 4 fine cells)
+// interpolation to its centre, rescaled. See advance for the order. The
 // scheme conserves neither mass nor momentum exactly across an interface
 // (the interpolation does not); Levels.Mass reports the drift.
 //
@@ -53,6 +55,8 @@ type Levels struct {
 	// force, when set, gives the body-force density at a time (see
 	// SetForceFunc)
 	force func(t float64) (gz, gr float64)
+	// transfer: wall time spent in the transfers between levels
+	transfer time.Duration
 }
 
 // Block places a finer level inside its parent level: the parent cells
@@ -200,7 +204,7 @@ func (h *Levels) SetForce(gz, gr float64) {
 // no population that a step reads.
 func (h *Levels) Fields(l int, dst *Fields) *Fields {
 	if l > 0 {
-		h.links[l-1].fillGhosts(1)
+		h.links[l-1].fillGhosts(1.5)
 	}
 	return h.solvers[l].Fields(dst)
 }
@@ -217,6 +221,11 @@ func (h *Levels) Step() { h.advance(0) }
 
 func (h *Levels) advance(l int) {
 	s := h.solvers[l]
+	if l < len(h.links) {
+		t0 := time.Now()
+		h.links[l].save() // before the force changes: save keeps the last one
+		h.transfer += time.Since(t0)
+	}
 	if h.force != nil {
 		scale := math.Ldexp(1, -l)
 		gz, gr := h.force(float64(s.Steps()) * scale)
@@ -226,15 +235,34 @@ func (h *Levels) advance(l int) {
 		s.Step()
 		return
 	}
+	// Level l's collision at time t (in its parent's clock: the one its
+	// step count gives) takes its post-collision populations from t - 1 to
+	// t. The child's two collisions fall at t and t + 1/2 (level l's
+	// steps): the first streams the child's post-collision populations of
+	// t - 1/2 and ghosts interpolated halfway through level l's step; its
+	// result, at t, is restricted to level l's cells at once, where level
+	// l's populations are also at t; the second streams ghosts of level l's
+	// post-collision populations at t. Every transfer joins populations of
+	// the same time, so the coupling is second order in time (restricting
+	// after the child's second collision instead, at t + 1/2, lags by half
+	// a step: measured first order in Womersley flow).
 	c := h.links[l]
-	c.save()
 	s.Step()
-	c.fillGhosts(0)
-	h.advance(l + 1)
+	t0 := time.Now()
 	c.fillGhosts(0.5)
+	h.transfer += time.Since(t0)
 	h.advance(l + 1)
+	t0 = time.Now()
 	c.restrict()
+	c.fillGhosts(1)
+	h.transfer += time.Since(t0)
+	h.advance(l + 1)
 }
+
+// TransferTime returns the wall time the steps so far spent in the
+// transfers between levels (saving, filling ghosts, restricting): the
+// part of a step that is not a level's own step.
+func (h *Levels) TransferTime() time.Duration { return h.transfer }
 
 // Covered reports whether node (k, j) of level l lies under the next finer
 // level, which then holds that region.
@@ -287,13 +315,15 @@ type coupling struct {
 
 	ring []sample     // parent cells the child's ghosts interpolate from
 	prev [Q][]float64 // their populations at the start of the parent's step
-	gh   []ghost      // the child's ghost cells
-	axis []int        // child columns whose ghost below the axis mirrors row 0
-	cov  []coverCell  // parent cells under the child
-	aP   float64      // coarse-to-fine factor of the symmetric non-equilibrium
-	aM   float64      // and of the antisymmetric one
-	bP   float64      // fine-to-coarse factors: 1/aP, 1/aM
-	bM   float64
+	// prevG: the parent's external force in the collision that made prev
+	prevG [2]float64
+	gh    []ghost     // the child's ghost cells
+	axis  []int       // child columns whose ghost below the axis mirrors row 0
+	cov   []coverCell // parent cells under the child
+	aP    float64     // coarse-to-fine factor of the symmetric non-equilibrium
+	aM    float64     // and of the antisymmetric one
+	bP    float64     // fine-to-coarse factors: 1/aP, 1/aM
+	bM    float64
 	// endCover: a restricted cell lies in the parent's first or last
 	// column, which the parent's end ghosts copy
 	endCover bool
@@ -521,8 +551,10 @@ func (cp *coupling) read(i int, s sample) float64 {
 	return cp.parent.pop(i, s.n)
 }
 
-// save keeps the ring's populations before the parent steps.
+// save keeps the ring's populations before the parent steps, and the
+// external force of the collision that made them.
 func (cp *coupling) save() {
+	cp.prevG = [2]float64{cp.parent.gz, cp.parent.gr}
 	for m, s := range cp.ring {
 		for i := 0; i < Q; i++ {
 			cp.prev[i][m] = cp.read(i, s)
@@ -534,7 +566,9 @@ func (cp *coupling) save() {
 // parent's step (0: its start, from the saved ring; 1/2: halfway, the mean
 // of the saved ring and the parent's new populations; 1: its end).
 func (cp *coupling) fillGhosts(theta float64) {
-	c := cp.child
+	c, p := cp.child, cp.parent
+	gz := (1-theta)*cp.prevG[0] + theta*p.gz
+	gr := (1-theta)*cp.prevG[1] + theta*p.gr
 	var v [Q]float64
 	for g := range cp.gh {
 		gh := &cp.gh[g]
@@ -549,7 +583,7 @@ func (cp *coupling) fillGhosts(theta float64) {
 			}
 			v[i] = sum
 		}
-		dz, dr := forceAt(cp.parent, &v, gh.r)
+		dz, dr := forceAt(cp.parent, gz, gr, &v, gh.r)
 		rescale(&v, cp.aP, cp.aM, -0.25*dz, -0.25*dr)
 		for i := 0; i < Q; i++ {
 			c.setPop(i, gh.dst, v[i])
@@ -591,7 +625,7 @@ func (cp *coupling) restrict() {
 			}
 			v[i] = sum
 		}
-		dz, dr := forceAt(c, &v, cc.r)
+		dz, dr := forceAt(c, c.gz, c.gr, &v, cc.r)
 		rescale(&v, cp.bP, cp.bM, 0.5*dz, 0.5*dr)
 		for i := 0; i < Q; i++ {
 			p.setPop(i, cc.dst, v[i])
@@ -612,8 +646,8 @@ func (cp *coupling) restrict() {
 // populations cross an interface: otherwise the levels' velocities differ
 // by F/4, an error of nu/R^2 in Poiseuille flow (measured 5e-4 of u_max
 // at R = 8, and 2e-11 with the exchange in the plane channel).
-func forceAt(s *Solver, v *[Q]float64, r float64) (fz, fr float64) {
-	fz, fr = s.gz, s.gr
+func forceAt(s *Solver, gz, gr float64, v *[Q]float64, r float64) (fz, fr float64) {
+	fz, fr = gz, gr
 	if !s.cfg.Axisymmetric {
 		return fz, fr
 	}

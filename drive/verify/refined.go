@@ -22,8 +22,8 @@ const (
 // tau0 on level 0.
 func refinedPipe(R int, tau0 float64, kind string, o Options) (*lbm.Levels, error) {
 	nz, b := 2, lbm.Block{Z0: 0, R0: R / 2, Nz: 2, Nr: R - R/2}
-	if kind == "across" {
-		nz, b = 8, lbm.Block{Z0: 2, R0: 0, Nz: 4, Nr: R}
+	if kind == "across" { // a pipe R long, its middle half fine
+		nz, b = R, lbm.Block{Z0: R / 4, R0: 0, Nz: R / 2, Nr: R}
 	}
 	return lbm.NewLevels(lbm.Config{Nz: nz, Nr: R, Tau: tau0, Axisymmetric: true, PeriodicZ: true,
 		Threads: o.Threads, Single: o.Single}, []lbm.Block{b})
@@ -84,11 +84,23 @@ func refinedWomersleyNorm(R int, alpha float64, kind string, o Options) (float64
 		return 0, err
 	}
 	defer h.Close()
+	return womersleyLevelsNorm(h, R, alpha), nil
+}
+
+// womersleyLevelsNorm drives the pipe h of level-0 radius R at Womersley
+// number alpha and returns refinedWomersleyNorm's error.
+func womersleyLevelsNorm(h *lbm.Levels, R int, alpha float64) float64 {
 	nu := h.Level(0).Viscosity()
 	omega := alpha * alpha * nu / float64(R*R)
 	period := int(math.Round(2 * math.Pi / omega))
 	omega = 2 * math.Pi / float64(period) // whole number of level-0 steps per period
-	w := Womersley{R: float64(R), Nu: nu, Omega: omega, G0: 1e-5, Rho: 1}
+	// Diffusive scaling of the drive: the lattice velocity falls as 1/R, so
+	// the Mach number's errors fall at second order too (a fixed drive
+	// makes u grow as R^2: Ma = 0.14 at R = 40, alpha 3, and across an
+	// interface, where the flow varies along z, compressibility then
+	// spoils the order; measured 1.36 from R = 10 to 20).
+	g0 := 1e-5 * math.Pow(10/float64(R), 3)
+	w := Womersley{R: float64(R), Nu: nu, Omega: omega, G0: g0, Rho: 1}
 	h.SetForceFunc(func(t float64) (float64, float64) { return w.G0 * math.Cos(omega*t), 0 })
 	settle := int(12*float64(R*R)/nu/float64(period)+1) * period
 	for n := 0; n < settle; n++ {
@@ -108,33 +120,61 @@ func refinedWomersleyNorm(R int, alpha float64, kind string, o Options) (float64
 		refMax = math.Max(refMax, math.Sqrt(r2))
 		h.Step()
 	}
-	return errMax / refMax, nil
+	return errMax / refMax
 }
 
-// reasonRefinedWom is why the refined Womersley rows are known
-// disagreements for now. Measured when written (level-0 radius 10 and 20,
-// alpha 3 and 8): the error is 5 to 12 times the bound, spread over the
-// whole pipe rather than at the interface, and falls at order about 2
-// (1.6 across the flow at alpha = 3), so the interface's error is of
-// second order with a large constant. Exchanging the force's half in the
-// stored momentum (lbm forceAt), which made Poiseuille exact, doubled it
-// (3 to 7 times before): the time-dependent part of the transfer is the
-// suspect.
-const reasonRefinedWom = "the level interface adds an error 5-12 times the bound, of order 2 (issue 17: the transfer of time-dependent flow is being studied); the bound is 1.5 x the uniform lattice's error at the finest spacing"
+// reasonRefinedWom is why the refined Womersley rows against the issue's
+// bound are known disagreements. Measured when written (level-0 radius 10
+// and 20, alpha 3 and 8): 2.0-2.3 times the uniform error with the fine
+// side at the wall at alpha 8, 9-10 at alpha 3, 3-5 across, at order about
+// 2. The excess is the coarse level's own error, not the interface's: a
+// uniform lattice at the coarse level's tau (0.65, which acoustic scaling
+// sets) has 2.2-2.8 times the error of tau 0.8 at the same spacing, 9-11
+// times the uniform error at the finest spacing, and the two-level error
+// lies below it (the checks refinedCoarseRow). Coupling the fine level a
+// half step late, as a first version did, had made it 5-19 times, at
+// order 1-2.
+const reasonRefinedWom = "the coarse level's own error: a uniform lattice at its tau (0.65) has 9-11 x the error at the finest spacing, and the coarse part carries it; the two-level error stays below it (next rows); the bound is 1.5 x the uniform lattice's error at the finest spacing"
 
-// refinedWomersleyRow compares the two-level Womersley error at level-0
-// radius R with 1.5 times the uniform lattice's at radius 2R.
-func refinedWomersleyRow(cs string, R int, alpha float64, kind string, o Options) (Row, float64, error) {
+// tolRefinedCoarse: refining part of a lattice must not make it less
+// accurate than the coarse lattice alone.
+const tolRefinedCoarse = "no worse than the coarse level alone (a refinement that adds error is a defect)"
+
+// refinedWomersleyRows compares the two-level Womersley error at level-0
+// radius R with 1.5 times the uniform lattice's at radius 2R (the issue's
+// bound) and with the uniform lattice's at radius R and the coarse level's
+// tau; it returns the two-level error too.
+func refinedWomersleyRows(cs string, R int, alpha float64, kind string, o Options) ([]Row, float64, error) {
 	n, err := refinedWomersleyNorm(R, alpha, kind, o)
 	if err != nil {
-		return Row{}, 0, err
+		return nil, 0, err
 	}
 	_, _, uniform, _, err := womersleyRun(2*R, alpha, o)
 	if err != nil {
-		return Row{}, 0, err
+		return nil, 0, err
 	}
-	return disagreement(cs, fmt.Sprintf("Womersley alpha=%g L2 error vs 1.5 x uniform R=%d, R=%d+%d", alpha, 2*R, R, 2*R),
-		n, 1.5*uniform, "abs", reasonRefinedWom, srcWom), n, nil
+	coarse, err := womersleyUniformNorm(R, 0.65, alpha, o)
+	if err != nil {
+		return nil, 0, err
+	}
+	return []Row{
+		disagreement(cs, fmt.Sprintf("Womersley alpha=%g L2 error vs 1.5 x uniform R=%d, R=%d+%d", alpha, 2*R, R, 2*R),
+			n, 1.5*uniform, "abs", reasonRefinedWom, srcWom),
+		atMost(cs, fmt.Sprintf("Womersley alpha=%g L2 error / uniform R=%d at tau 0.65, R=%d+%d", alpha, R, R, 2*R),
+			n/coarse, 1, srcWom, tolRefinedCoarse),
+	}, n, nil
+}
+
+// womersleyUniformNorm is refinedWomersleyNorm on one uniform lattice of
+// radius R and relaxation time tau.
+func womersleyUniformNorm(R int, tau, alpha float64, o Options) (float64, error) {
+	h, err := lbm.NewLevels(lbm.Config{Nz: 2, Nr: R, Tau: tau, Axisymmetric: true, PeriodicZ: true,
+		Threads: o.Threads, Single: o.Single}, nil)
+	if err != nil {
+		return 0, err
+	}
+	defer h.Close()
+	return womersleyLevelsNorm(h, R, alpha), nil
 }
 
 func checkRefinedPipe(o Options) ([]Row, error) {
@@ -149,11 +189,11 @@ func checkRefinedPipe(o Options) ([]Row, error) {
 			atMost(cs, "Hagen-Poiseuille max error / u_max, R=10+20", e, 1e-3, srcHP, tolRefinedHP),
 			info(cs, "relative mass change over 12 viscous times (the transfer does not conserve it)", drift, math.NaN(),
 				"Levels.Mass, each region on its finest level"))
-		r, _, err := refinedWomersleyRow(cs, 10, 8, kind, o)
+		r, _, err := refinedWomersleyRows(cs, 10, 8, kind, o)
 		if err != nil {
 			return nil, err
 		}
-		rows = append(rows, r)
+		rows = append(rows, r...)
 	}
 	return rows, nil
 }
@@ -166,15 +206,15 @@ func checkRefinedWomersley(o Options) ([]Row, error) {
 		for _, alpha := range []float64{3, 8} {
 			var norms [2]float64
 			for i, R := range []int{10, 20} {
-				r, n, err := refinedWomersleyRow(cs, R, alpha, kind, o)
+				r, n, err := refinedWomersleyRows(cs, R, alpha, kind, o)
 				if err != nil {
 					return nil, err
 				}
 				norms[i] = n
-				rows = append(rows, r)
+				rows = append(rows, r...)
 			}
-			rows = append(rows, disagreement(cs, fmt.Sprintf("Womersley alpha=%g observed order, R=10..20", alpha),
-				math.Log2(norms[0]/norms[1]), 2, "abs", reasonRefinedWom, srcOrder))
+			rows = append(rows, within(cs, fmt.Sprintf("Womersley alpha=%g observed order, R=10..20", alpha),
+				math.Log2(norms[0]/norms[1]), 2, 0.3, "order", srcOrder, tolOrderWom))
 		}
 	}
 	return rows, nil
