@@ -18,6 +18,13 @@ type Prescribed struct {
 func StepPrescribed(fl *lbm.Solver, bs *Bodies, moves []Prescribed) error {
 	fl.Step()
 	bs.Collect()
+	return MovePrescribed(fl, bs, moves)
+}
+
+// MovePrescribed is StepPrescribed's second half: after fl's step, and the
+// forces collected, it moves the bodies (on levels, the finest level's
+// step is taken by lbm.Levels, which runs this after each one).
+func MovePrescribed(fl *lbm.Solver, bs *Bodies, moves []Prescribed) error {
 	t := float64(fl.Steps())
 	for _, m := range moves {
 		b := bs.List[m.Body]

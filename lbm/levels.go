@@ -57,6 +57,10 @@ type Levels struct {
 	force func(t float64) (gz, gr float64)
 	// transfer: wall time spent in the transfers between levels
 	transfer time.Duration
+	// after, when set, runs after each step of the finest level (see
+	// AfterFinest); err keeps its first error
+	after func() error
+	err   error
 }
 
 // Block places a finer level inside its parent level: the parent cells
@@ -216,8 +220,22 @@ func (h *Levels) Fields(l int, dst *Fields) *Fields {
 // does. A nil fn keeps the force last set.
 func (h *Levels) SetForceFunc(fn func(t float64) (gz, gr float64)) { h.force = fn }
 
-// Step advances every level by one step of level 0.
-func (h *Levels) Step() { h.advance(0) }
+// AfterFinest sets fn to run after each step of the finest level, where
+// the bodies live: it may read the finest level's boundary forces and move
+// its links and solid nodes as after a Solver.Step (the next finest step
+// streams them; the coarser levels see the change at the next
+// restriction). A nil fn removes it.
+func (h *Levels) AfterFinest(fn func() error) { h.after = fn }
+
+// Step advances every level by one step of level 0 and returns the first
+// error of the AfterFinest function, after which that function is not run
+// again in this step (the levels still finish the step, so they stay
+// consistent).
+func (h *Levels) Step() error {
+	h.err = nil
+	h.advance(0)
+	return h.err
+}
 
 func (h *Levels) advance(l int) {
 	s := h.solvers[l]
@@ -233,6 +251,9 @@ func (h *Levels) advance(l int) {
 	}
 	if l == len(h.links) {
 		s.Step()
+		if h.after != nil && h.err == nil {
+			h.err = h.after()
+		}
 		return
 	}
 	// Level l's collision at time t (in its parent's clock: the one its

@@ -46,6 +46,7 @@ func Checks() []Check {
 		{Name: "sphere-uniform-pressure", Run: checkUniformPressure},
 		{Name: "sphere-translating", Run: checkTranslating},
 		{Name: "sphere-oscillating", Run: checkOscillating},
+		{Name: "refined-sphere-oscillating", Run: checkRefinedOscillating},
 		{Name: "sphere-wake", Run: checkWake},
 		{Name: "determinism-moving-sphere", Run: checkDeterminismBodies},
 		{Name: "free-sphere", Run: checkFreeSphere},
@@ -65,6 +66,7 @@ func Checks() []Check {
 		{Name: "three-sphere-container", Full: true, Run: checkThreeSphereContainer},
 		{Name: "three-sphere-resolution", Full: true, Run: checkThreeSphereResolution},
 		{Name: "sphere-oscillating-thin", Full: true, Run: checkOscillatingThin},
+		{Name: "refined-sphere-oscillating-full", Full: true, Run: checkRefinedOscillatingFull},
 		{Name: "sphere-wake-100", Full: true, Run: checkWake100},
 	}
 }

@@ -1,0 +1,159 @@
+package verify
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+
+	"axiswim/drive"
+	"axiswim/geometry"
+	"axiswim/lbm"
+)
+
+// The sphere checks on levels (issue 17): the sphere on the finest level,
+// the outer liquid on coarser ones.
+
+// nestedTube makes a closed axisymmetric tube of nz x nr finest cells on n
+// levels: the finest covers [zlo, zhi) x [0, rhi) finest cells (rounded
+// out to its parent's cells), and each coarser level l >= 1 covers the
+// next finer one with a margin of grow of its parent's cells, a side within two parent cells of the wall made to
+// touch it. nz and nr must be multiples of 2^(n-1). It returns the levels
+// and the finest level's first cell in finest cells along z.
+func nestedTube(nz, nr, n int, zlo, zhi, rhi, grow int, tau float64, o Options) (*lbm.Levels, int, error) {
+	f := 1 << (n - 1)
+	if nz%f != 0 || nr%f != 0 {
+		return nil, 0, fmt.Errorf("tube %d x %d is not a whole number of level-0 cells (%d finest)", nz, nr, f)
+	}
+	// regions[l]: level l's region in finest cells (z0, z1, r1); level 0 is
+	// the tube.
+	type region struct{ z0, z1, r1 int }
+	regions := make([]region, n)
+	regions[0] = region{0, nz, nr}
+	cur := region{zlo, zhi, rhi}
+	for l := n - 1; l >= 1; l-- {
+		c := 1 << (n - l) // level l-1's cell in finest cells
+		cur = region{c * floorDiv(cur.z0, c), c * ceilDiv(cur.z1, c), c * ceilDiv(cur.r1, c)}
+		regions[l] = cur
+		cur = region{cur.z0 - grow*c, cur.z1 + grow*c, cur.r1 + grow*c}
+	}
+	blocks := make([]lbm.Block, n-1)
+	origin := 0
+	for l := 1; l < n; l++ {
+		c := 1 << (n - l)
+		p, r := regions[l-1], regions[l]
+		if p.r1-r.r1 < 2*c {
+			r.r1 = p.r1
+		}
+		if r.z0-p.z0 < 2*c || p.z1-r.z1 < 2*c || r.z0 < 0 {
+			return nil, 0, fmt.Errorf("level %d's region z [%d, %d) is within two parent cells of its parent's [%d, %d): lengthen the tube", l, r.z0, r.z1, p.z0, p.z1)
+		}
+		regions[l] = r
+		blocks[l-1] = lbm.Block{Z0: (r.z0 - p.z0) / c, R0: 0, Nz: (r.z1 - r.z0) / c, Nr: r.r1 / c}
+		origin = r.z0
+	}
+	tau0 := 0.5 + (tau-0.5)/float64(f)
+	h, err := lbm.NewLevels(lbm.Config{Nz: nz / f, Nr: nr / f, Tau: tau0, Axisymmetric: true,
+		Threads: o.Threads, Single: o.Single}, blocks)
+	return h, origin, err
+}
+
+func floorDiv(a, b int) int { return int(math.Floor(float64(a) / float64(b))) }
+func ceilDiv(a, b int) int  { return int(math.Ceil(float64(a) / float64(b))) }
+
+// oscillateLevels is oscillate with the tube on n levels: the finest, of
+// oscillate's spacing, around the sphere with a margin of two radii beyond
+// its surface (3a from its centre along z and from the axis), each coarser
+// one 4 of its parent's cells beyond. The margin is issue 17's "about two
+// small-sphere radii": at one radius the phase is 2.5 degrees off at
+// a/delta = 2 and 3.9 at a/delta = 1 (worse than the uniform lattice at
+// the coarse spacing, 0.8 degrees), at two it is the uniform fine
+// lattice's to 0.3 degrees, at three to 0.03 (measured when written).
+func oscillateLevels(a, aOverDelta, lambda float64, n int, o Options) (z, ref complex128, err error) {
+	return oscillateLevelsW(a, aOverDelta, lambda, n, 3, o)
+}
+
+// oscillateLevelsW is oscillateLevels with the finest level reaching wid
+// radii from the sphere's centre.
+func oscillateLevelsW(a, aOverDelta, lambda float64, n int, wid float64, o Options) (z, ref complex128, err error) {
+	f := 1 << (n - 1)
+	R := f * int(math.Round(a/lambda/float64(f)))
+	L := 6 * R
+	delta := a / aOverDelta
+	omega := math.Sqrt(lbm.Cs2) / float64(L)                   // the acoustic limit, as oscillate
+	period := int(math.Ceil(2 * math.Pi / omega / float64(f))) // level-0 steps
+	omega = 2 * math.Pi / float64(period*f)                    // per finest step
+	nu := omega * delta * delta / 2
+	tau := 3*nu + 0.5
+	const eps = 0.02
+	U := eps * a * omega
+	zc := float64(L)/2 + 0.217
+	h, origin, err := nestedTube(L, R, n, int(zc-wid*a), int(math.Ceil(zc+wid*a)), int(math.Ceil(wid*a)), 4, tau, o)
+	if err != nil {
+		return 0, 0, err
+	}
+	defer h.Close()
+	fine := h.Level(n - 1)
+	vel := func(t float64) float64 { return U * math.Cos(omega*t) }
+	bs, err := drive.NewBodies(fine, []geometry.Sphere{{Z: zc - float64(origin), Radius: a}}, []float64{vel(0.5)})
+	if err != nil {
+		return 0, 0, err
+	}
+	mv := []drive.Prescribed{{Body: 0, Velocity: vel}}
+	var fz complex128
+	var count int
+	h.AfterFinest(func() error {
+		bs.Collect()
+		t := float64(fine.Steps())
+		if t > float64(3*period*f) {
+			fz += complex(bs.List[0].Force(), 0) * cmplx.Exp(complex(0, -omega*(t-0.5)))
+			count++
+		}
+		return drive.MovePrescribed(fine, bs, mv)
+	})
+	for s := 0; s < 4*period; s++ {
+		if err := h.Step(); err != nil {
+			return 0, 0, err
+		}
+	}
+	fz *= complex(2/float64(count), 0)
+	return fz / complex(U, 0), StokesOscillatingForce(a, nu, 1, omega), nil
+}
+
+// checkRefinedOscillating: the oscillating sphere of sphere-oscillating
+// with the liquid beyond two radii from its surface on coarser levels,
+// against the same reference and tolerances.
+func checkRefinedOscillating(o Options) ([]Row, error) {
+	return refinedOscillatingRows(o, []refinedOscillation{
+		{oscillation{8, 1, 0.125}, 2},
+		{oscillation{8, 2, 0.2}, 3},
+	})
+}
+
+// checkRefinedOscillatingFull: the rest of issue 17's a/delta = 1, 2, 5.
+func checkRefinedOscillatingFull(o Options) ([]Row, error) {
+	return refinedOscillatingRows(o, []refinedOscillation{
+		{oscillation{8, 2, 0.2}, 2},
+		{oscillation{15, 5, 0.2}, 2},
+	})
+}
+
+// refinedOscillation is an oscillation on a number of levels.
+type refinedOscillation struct {
+	osc    oscillation
+	levels int
+}
+
+func refinedOscillatingRows(o Options, cs []refinedOscillation) ([]Row, error) {
+	var rows []Row
+	for _, c := range cs {
+		z, ref, err := oscillateLevels(c.osc.a, c.osc.aod, c.osc.lambda, c.levels, o)
+		if err != nil {
+			return nil, err
+		}
+		cs := fmt.Sprintf("oscillating a/delta=%g a=%g, %d levels", c.osc.aod, c.osc.a, c.levels)
+		rows = append(rows,
+			withinRel(cs, fmt.Sprintf("|F|/|U| (delta=%.3g cells)", c.osc.a/c.osc.aod), cmplx.Abs(z), cmplx.Abs(ref), 0.03, srcStokesO, tolStokesO),
+			within(cs, "phase of F vs U (deg)", phaseDeg(z, 1), phaseDeg(ref, 1), 2, "deg", srcStokesO, tolStokesO))
+	}
+	return rows, nil
+}
