@@ -47,6 +47,7 @@ func Checks() []Check {
 		{Name: "sphere-translating", Run: checkTranslating},
 		{Name: "sphere-oscillating", Run: checkOscillating},
 		{Name: "refined-sphere-oscillating", Run: checkRefinedOscillating},
+
 		{Name: "sphere-wake", Run: checkWake},
 		{Name: "determinism-moving-sphere", Run: checkDeterminismBodies},
 		{Name: "free-sphere", Run: checkFreeSphere},
@@ -67,6 +68,7 @@ func Checks() []Check {
 		{Name: "three-sphere-resolution", Full: true, Run: checkThreeSphereResolution},
 		{Name: "sphere-oscillating-thin", Full: true, Run: checkOscillatingThin},
 		{Name: "refined-sphere-oscillating-full", Full: true, Run: checkRefinedOscillatingFull},
+		{Name: "refined-sphere-translating", Full: true, Run: checkRefinedTranslating},
 		{Name: "sphere-wake-100", Full: true, Run: checkWake100},
 	}
 }

@@ -157,3 +157,103 @@ func refinedOscillatingRows(o Options, cs []refinedOscillation) ([]Row, error) {
 	}
 	return rows, nil
 }
+
+// translateLevels is translate with the tube on n levels: the finest, of
+// translate's spacing, around the sphere's path with a margin of two radii
+// beyond its surface, each coarser one 4 of its parent's cells beyond. The
+// finest tau is 0.8 (translate's 1 would put a coarser level's tau- near
+// 1, which the rescaling cannot take: TRT at Lambda = 3/16 keeps the walls
+// where they are at any tau). The mean density is not kept exactly on
+// levels (the transfer interpolates), so the drift row is not repeated.
+func translateLevels(a, lambda float64, n int, o Options) (translation, error) {
+	const tau = 0.8
+	f := 1 << (n - 1)
+	R := f * int(math.Round(a/lambda/float64(f)))
+	nu := (tau - 0.5) / 3
+	U := 0.05 * nu / (2 * a)
+	steps := f * int(1.5*float64(R*R)/nu/float64(f)) // finest steps, whole level-0 steps
+	travel := U * float64(steps)
+	L := f * ceilDiv(int(5*float64(R)+2*a+travel+4), f)
+	z0 := float64(L)/2 - travel/2 + 0.123
+	h, origin, err := nestedTube(L, R, n, int(z0-3*a), int(math.Ceil(z0+travel+3*a)), int(math.Ceil(3*a)), 4, tau, o)
+	if err != nil {
+		return translation{}, err
+	}
+	defer h.Close()
+	fine := h.Level(n - 1)
+	bs, err := drive.NewBodies(fine, []geometry.Sphere{{Z: z0 - float64(origin), Radius: a}}, []float64{U})
+	if err != nil {
+		return translation{}, err
+	}
+	mv := []drive.Prescribed{{Body: 0, Velocity: func(float64) float64 { return U }}}
+	win := int(math.Round(2 / U))
+	var s, s2, sl, sl2 float64
+	h.AfterFinest(func() error {
+		bs.Collect()
+		if int(fine.Steps()) > steps-win {
+			b := bs.List[0]
+			f, l := b.Force(), b.LinkForce
+			s, s2, sl, sl2 = s+f, s2+f*f, sl+l, sl2+l*l
+		}
+		return drive.MovePrescribed(fine, bs, mv)
+	})
+	for i := 0; i < steps/f; i++ {
+		if err := h.Step(); err != nil {
+			return translation{}, err
+		}
+	}
+	w := float64(win)
+	mean, meanL := s/w, sl/w
+	return translation{
+		K:          -mean / (6 * math.Pi * nu * a * U),
+		rms:        math.Sqrt(math.Max(0, s2/w-mean*mean)) / math.Abs(mean),
+		rmsL:       math.Sqrt(math.Max(0, sl2/w-meanL*meanL)) / math.Abs(meanL),
+		steps:      steps,
+		fallback:   bs.List[0].Fallback,
+		cellsMoved: travel,
+		lambda:     a / float64(R),
+	}, nil
+}
+
+// reasonRefinedTranslating is why the translating sphere in the wider tube
+// is a known disagreement on levels. Measured when written (a = 10, tube
+// radius 50, 2 levels, finest tau 0.8): the drag is 2.1% below Haberman &
+// Sayre with the fine level reaching 3a from the axis (the uniform lattice:
+// 0.46% below), 0.94% below at 5a, 1.45% below on 3 levels at 5a; in the
+// narrow tube, where the fine level reaches the wall and the interfaces
+// lie across the tube only, it agrees as the uniform lattice does (0.47%).
+// Steady Stokes flow reaches far (its velocity falls as a/r), so the coarse
+// levels and their interfaces along the flow carry part of the drag; the
+// oscillating sphere, screened by its Stokes layer, shows no such excess.
+const reasonRefinedTranslating = "steady Stokes flow reaches the coarse level: 2.1% low with the fine level to 3a, 0.9% to 5a (uniform: 0.46%); issue 17 asks for the uniform lattice's 2%"
+
+// checkRefinedTranslating: the translating sphere of sphere-translating on
+// levels, the fine level 2 radii beyond the sphere's surface and path: in
+// the narrow tube (lambda 0.4, the fine level to the wall, interfaces
+// across the tube) against the same references and tolerances, in the
+// wide one (lambda 0.2, an interface along the flow) as known
+// disagreements (reasonRefinedTranslating).
+func checkRefinedTranslating(o Options) ([]Row, error) {
+	var rows []Row
+	for _, lam := range []float64{0.4, 0.2} {
+		t, err := translateLevels(10, lam, 2, o)
+		if err != nil {
+			return nil, err
+		}
+		// the tube's radius is rounded to whole level-0 cells: lambda is a/R
+		cs := fmt.Sprintf("translating a=10 lam=%.4g, 2 levels", t.lambda)
+		hs, bo := HabermanSayre(t.lambda), Bohlin(t.lambda)
+		if lam == 0.4 {
+			rows = append(rows,
+				withinRel(cs, "F/(6 pi mu a U) vs Haberman-Sayre", t.K, hs, 0.02, srcHS, tolWall),
+				withinRel(cs, "F/(6 pi mu a U) vs Bohlin", t.K, bo, 0.02, srcBohlin, tolWall),
+				atMost(cs, "force rms / mean (links + nodes)", t.rms, 0.02, srcNoise, tolNoise))
+			continue
+		}
+		rows = append(rows,
+			disagreement(cs, "F/(6 pi mu a U) vs Haberman-Sayre", t.K, hs, "rel", reasonRefinedTranslating, srcHS),
+			disagreement(cs, "F/(6 pi mu a U) vs Bohlin", t.K, bo, "rel", reasonRefinedTranslating, srcBohlin),
+			info(cs, "force rms / mean (links + nodes; the uniform lattice's: 1.6%, bound 2%)", t.rms, math.NaN(), srcNoise))
+	}
+	return rows, nil
+}

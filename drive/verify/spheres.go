@@ -74,6 +74,7 @@ type translation struct {
 	steps      int
 	fallback   int
 	cellsMoved float64
+	lambda     float64 // a/R of the tube run
 }
 
 // translate moves a sphere of radius a cells at Re = U 2a/nu = 0.05 along
@@ -123,6 +124,7 @@ func translate(a, lambda float64, o Options) (translation, error) {
 		steps:      steps,
 		fallback:   bs.List[0].Fallback,
 		cellsMoved: travel,
+		lambda:     a / float64(R),
 	}
 	return t, nil
 }
