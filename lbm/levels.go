@@ -203,9 +203,11 @@ func (h *Levels) SetForce(gz, gr float64) {
 }
 
 // Fields computes level l's fields (see Solver.Fields) at the end of the
-// last Step: its ghost cells are filled first from its parent's current
-// populations, as the next step would find them at its start. It changes
-// no population that a step reads.
+// last Step, the time of every level's next collision: its ghost cells are
+// filled first with its parent's populations of half a parent step later
+// (extrapolated linearly from the parent's last two), which that collision
+// streams. It changes no population that a step reads (the next step
+// fills the ghosts again).
 func (h *Levels) Fields(l int, dst *Fields) *Fields {
 	if l > 0 {
 		h.links[l-1].fillGhosts(1.5)
