@@ -15,19 +15,7 @@ func (s *Solver) SetSolid(k, j int, solid bool) {
 		return
 	}
 	s.solid[n] = solid
-	s.segs[j] = s.segs[j][:0]
-	start := -1
-	base := s.idx(0, j)
-	for kk := 0; kk <= s.nz; kk++ {
-		fluid := kk < s.nz && !s.solid[base+kk]
-		switch {
-		case fluid && start < 0:
-			start = kk
-		case !fluid && start >= 0:
-			s.segs[j] = append(s.segs[j], [2]int{start, kk})
-			start = -1
-		}
-	}
+	s.resegment(j)
 }
 
 // Solid reports whether node (k, j) is solid.
