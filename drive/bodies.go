@@ -256,3 +256,17 @@ func (bs *Bodies) near(k int, changed ...[]geometry.Node) bool {
 	}
 	return false
 }
+
+// ShiftZ follows a move of the lattice's window by d cells along z (a
+// refined level moved by lbm.Levels.MoveAll, which carries the solid nodes
+// and boundary links along): every body's centre and links move by -d
+// cells in the lattice's coordinates, the place in the container staying
+// the same.
+func (bs *Bodies) ShiftZ(d int) {
+	for _, b := range bs.List {
+		b.Shape.Z -= float64(d)
+		for x := range b.links {
+			b.links[x].K -= d
+		}
+	}
+}

@@ -47,6 +47,7 @@ func Checks() []Check {
 		{Name: "sphere-translating", Run: checkTranslating},
 		{Name: "sphere-oscillating", Run: checkOscillating},
 		{Name: "refined-sphere-oscillating", Run: checkRefinedOscillating},
+		{Name: "refined-sphere-wake", Run: checkRefinedWake},
 
 		{Name: "sphere-wake", Run: checkWake},
 		{Name: "determinism-moving-sphere", Run: checkDeterminismBodies},
@@ -69,6 +70,7 @@ func Checks() []Check {
 		{Name: "sphere-oscillating-thin", Full: true, Run: checkOscillatingThin},
 		{Name: "refined-sphere-oscillating-full", Full: true, Run: checkRefinedOscillatingFull},
 		{Name: "refined-sphere-translating", Full: true, Run: checkRefinedTranslating},
+		{Name: "refined-sphere-wake-100", Full: true, Run: checkRefinedWake100},
 		{Name: "sphere-wake-100", Full: true, Run: checkWake100},
 	}
 }

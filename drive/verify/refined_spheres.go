@@ -257,3 +257,104 @@ func checkRefinedTranslating(o Options) ([]Row, error) {
 	}
 	return rows, nil
 }
+
+// wakeLevels is wakeRun with the tube on n levels: the finest, of
+// wakeRun's spacing, around the sphere from 3 radii ahead of its centre to
+// 6 behind and from the axis to 3 radii, each coarser one 4 of its
+// parent's cells beyond; the levels move with the sphere (Levels.MoveAll)
+// whenever it has gone a level-0 cell. It returns wakeRun's drag
+// coefficient and recirculation length and the number of moves.
+func wakeLevels(a, lambda, re, travel float64, n int, o Options) (cd, ls float64, moves int, err error) {
+	const U = 0.05
+	f := 1 << (n - 1)
+	nu := U * 2 * a / re
+	tau := 3*nu + 0.5
+	R := f * int(math.Round(a/lambda/float64(f)))
+	dist := travel * 2 * a
+	L := f * ceilDiv(int(dist+3*float64(R)+2*a+14*a), f)
+	z0 := float64(R) + a + 0.31
+	h, origin, err := nestedTube(L, R, n, int(z0-6*a), int(math.Ceil(z0+3*a)), int(math.Ceil(3*a)), 4, tau, o)
+	if err != nil {
+		return 0, 0, 0, err
+	}
+	defer h.Close()
+	fine := h.Level(n - 1)
+	bs, err := drive.NewBodies(fine, []geometry.Sphere{{Z: z0 - float64(origin), Radius: a}}, []float64{U})
+	if err != nil {
+		return 0, 0, 0, err
+	}
+	mv := []drive.Prescribed{{Body: 0, Velocity: func(float64) float64 { return U }}}
+	steps := f * int(dist/U/float64(f))
+	win := int(2 * a / U)
+	var s float64
+	h.AfterFinest(func() error {
+		bs.Collect()
+		if int(fine.Steps()) > steps-win {
+			s += bs.List[0].Force()
+		}
+		return drive.MovePrescribed(fine, bs, mv)
+	})
+	home := bs.List[0].Shape.Z
+	for i := 0; i < steps/f; i++ {
+		if err := h.Step(); err != nil {
+			return 0, 0, 0, err
+		}
+		if bs.List[0].Shape.Z-home >= float64(f) {
+			if err := h.MoveAll(1); err != nil {
+				return 0, 0, 0, err
+			}
+			bs.ShiftZ(f)
+			moves++
+		}
+	}
+	cd = -s / float64(win) / (0.5 * U * U * math.Pi * a * a)
+	fields := h.Fields(n-1, nil)
+	rear := bs.List[0].Shape.Z - a
+	prev, prevZ := math.NaN(), 0.0
+	for k := int(math.Floor(rear - 0.5)); k >= 0; k-- {
+		z := float64(k) + 0.5
+		if fine.Solid(k, 0) {
+			continue
+		}
+		rel := fields.Uz[fields.At(k, 0)] - U
+		if math.IsNaN(prev) && rel <= 0 {
+			return cd, 0, moves, nil // attached
+		}
+		if prev > 0 && rel <= 0 {
+			zs := prevZ + (z-prevZ)*prev/(prev-rel)
+			return cd, (rear - zs) / (2 * a), moves, nil
+		}
+		prev, prevZ = rel, z
+	}
+	return cd, 0, moves, nil
+}
+
+// checkRefinedWake: sphere-wake's drag and recirculation at Re = 20 and 50
+// on two levels, the fine level moving with the sphere over its 15
+// diameters of travel, against the same references and tolerances.
+func checkRefinedWake(o Options) ([]Row, error) {
+	return refinedWakeRows(o, []wake{{8, 20}, {8, 50}})
+}
+
+// checkRefinedWake100 is refined-sphere-wake at Re = 100 (12 cells per
+// radius, as sphere-wake-100).
+func checkRefinedWake100(o Options) ([]Row, error) {
+	return refinedWakeRows(o, []wake{{12, 100}})
+}
+
+func refinedWakeRows(o Options, cs []wake) ([]Row, error) {
+	var rows []Row
+	for _, c := range cs {
+		cd, ls, moves, err := wakeLevels(c.a, 0.1, c.re, 15, 2, o)
+		if err != nil {
+			return nil, err
+		}
+		cs := fmt.Sprintf("sphere wake Re=%g a=%g, 2 levels", c.re, c.a)
+		rows = append(rows, withinRel(cs, "drag coefficient C_D", cd, StandardDragCurve(c.re), 0.03, srcCGW, tolWake))
+		if ref, ok := RecirculationLength(c.re); ok {
+			rows = append(rows, withinRel(cs, "recirculation length L_s/d", ls, ref, 0.05, srcJP, tolWake))
+		}
+		rows = append(rows, info(cs, "moves of the fine level with the sphere (one level-0 cell each)", float64(moves), math.NaN(), "Levels.MoveAll"))
+	}
+	return rows, nil
+}
