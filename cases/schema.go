@@ -216,9 +216,25 @@ type Grid struct {
 	// CellSize is the nominal cell size in metres. It is required, and
 	// allowed, only when there is no sphere.
 	CellSize float64 `toml:"cell_size,omitzero" note:"m"`
-	// Tau is the relaxation time τ⁺. Zero means not given: Resolve then
-	// chooses the time step from the stability limits.
+	// Tau is the relaxation time τ⁺ (of the finest level). Zero means not
+	// given: Resolve then chooses the time step from the stability limits.
 	Tau float64 `toml:"tau,omitzero" note:"relaxation time" unset:"tau not given: the time step is chosen from the stability limits"`
+	// Levels is the number of nested levels refined by 2 (issue 17;
+	// default 1, one uniform lattice; at most MaxLevels). With more,
+	// level 0 covers the container with cells 2^(levels-1) times as wide
+	// as the finest level's, and each finer level covers a block of its
+	// parent around the spheres (see [Lattice.Layout]); CellsPerRadius is
+	// the finest level's.
+	Levels int `toml:"levels" note:"nested levels refined by 2 toward the spheres (1: one uniform lattice)"`
+	// FineMargin is the margin of the finest level around every sphere
+	// and its excursion, in radii of the smallest sphere (default 2, the
+	// issue's "about two small-sphere radii"). Used only with Levels > 1.
+	FineMargin float64 `toml:"fine_margin" note:"finest level around each sphere and its excursion, in radii of the smallest sphere (levels > 1)"`
+	// LevelMargin is the margin of each coarser level around the next
+	// finer one, in the coarser level's cells (default
+	// DefaultLevelMargin; at least 2, the coupling's rule). Used only with
+	// Levels > 1.
+	LevelMargin int `toml:"level_margin" note:"each coarser level around the next finer one, in its cells (levels > 1)"`
 }
 
 // Solver is the [solver] section.
@@ -240,7 +256,9 @@ type Run struct {
 }
 
 // Default returns a case with every unconditional default filled in and
-// the required values left zero. The defaults that depend on the rest of
+// the required values left zero. The grid's levels and margins have their
+// defaults only here (and so in [Parse]): zero is not a valid value of
+// them, and Validate refuses it. The defaults that depend on the rest of
 // the case (cells_per_radius, samples_per_period or sample_interval,
 // rest_length, the arm frequency) are filled in by [Case.FillDefaults].
 func Default() *Case {
@@ -249,6 +267,7 @@ func Default() *Case {
 		Shaking:   Shaking{RampPeriods: DefaultRampPeriods, Gravity: DefaultGravity},
 		Bodies: Bodies{VirtualMass: DefaultVirtualMass, Coupling: DefaultCoupling,
 			RepulsionRange: DefaultRepulsionRange},
+		Grid:   Grid{Levels: DefaultLevels, FineMargin: DefaultFineMargin, LevelMargin: DefaultLevelMargin},
 		Solver: Solver{Collision: DefaultCollision, Magic: DefaultMagic, Precision: DefaultPrecision},
 		Output: Output{SnapshotsPerPeriod: DefaultSnapshotsPerPeriod, SnapshotPeriods: 1,
 			Mirror: true, VTK: true, Pictures: true},
