@@ -60,7 +60,7 @@ func checkLevels(stdout, stderr io.Writer, c *cases.Case, l *cases.Lattice, thre
 	}
 	fmt.Fprintf(stdout, "\n  %-5s %9s %9s %9s  %-16s %8s %9s\n", "level", "tau+", "tau-", "floor", "binding rule", "Re_g", "delta/dx")
 	for k, lv := range ly.Levels {
-		fmt.Fprintf(stdout, "  %-5d %9.5f %9.4g %9.5f  %-16s %8.3g %9.3g\n", k, lv.Tau, lv.TauMinus, lv.TauFloor, lv.Binding, lv.ReGrid, lv.StokesCells)
+		fmt.Fprintf(stdout, "  %-5d %9.5f %9.4g %9.5f  %-16s %8.3g %9.3g\n", k, lv.Tau, lv.TauMinus, lv.TauFloor, lv.Binding.String(), lv.ReGrid, lv.StokesCells)
 	}
 	fmt.Fprintf(stdout, "  floor: the least tau+ of the rule measured for TRT with the axisymmetric terms (benchmarks/taustability/README.md):\n")
 	fmt.Fprintf(stdout, "  tau+ >= %g, and Re_g = u dx/nu <= %g, u taken as the reference speed on every level (the far field is slower: a cautious reading);\n",
@@ -71,8 +71,8 @@ func checkLevels(stdout, stderr io.Writer, c *cases.Case, l *cases.Lattice, thre
 	rg := ly.Region
 	fmt.Fprintf(stdout, "\nfine region (level %d): z %.5g .. %.5g m, r up to %.5g m: one region around all the spheres (trains too, for now),\n",
 		n-1, rg.ZMin, rg.ZMax, rg.RMax)
-	fmt.Fprintf(stdout, "  each with its excursion and grid.fine_margin = %g radii of the smallest sphere (%.4g m); coarser levels add grid.level_margin = %d of their cells\n",
-		c.Grid.FineMargin, c.Grid.FineMargin*smallestRadius(c), c.Grid.LevelMargin)
+	fmt.Fprintf(stdout, "  each with its excursion and the fine margin of %.4g m (%.4g radii of the smallest sphere, grid.fine_margin); coarser levels add %d of their cells (grid.level_margin)\n",
+		ly.FineMargin, ly.FineMargin/smallestRadius(c), ly.LevelMargin)
 	amps := modelAmplitudes(c)
 	fmt.Fprintf(stdout, "  %-7s %14s %20s\n", "sphere", "excursion (m)", "linear model (m)")
 	for i, e := range ly.Excursions {

@@ -72,13 +72,30 @@ const (
 	MaxLevelGridRe = 20.0
 )
 
-// Names of the per-level floor that binds (Level.Binding).
+// A LevelRule is a stability rule that sets a level's floor of tau+
+// (Level.Binding).
+type LevelRule int
+
+// The rules.
 const (
-	BindingTau    = "tau+ >= 0.5025" // MinLevelTau
-	BindingGridRe = "Re_g <= 20"     // MaxLevelGridRe
-	BindingMinTau = "tau >= 0.51"    // MinTau: one uniform lattice
-	bindingSource = "benchmarks/taustability/README.md"
+	RuleMinTau LevelRule = iota // tau >= MinTau: one uniform lattice (METHODS.md 10.1)
+	RuleTau                     // tau+ >= MinLevelTau (benchmarks/taustability)
+	RuleGridRe                  // Re_g <= MaxLevelGridRe (benchmarks/taustability)
 )
+
+// String writes the rule as an inequality.
+func (r LevelRule) String() string {
+	switch r {
+	case RuleTau:
+		return fmt.Sprintf("tau+ >= %g", MinLevelTau)
+	case RuleGridRe:
+		return fmt.Sprintf("Re_g <= %g", MaxLevelGridRe)
+	}
+	return fmt.Sprintf("tau >= %g", MinTau)
+}
+
+// bindingSource is where the per-level rules were measured.
+const bindingSource = "benchmarks/taustability/README.md"
 
 // A Layout is how the levels of a lattice cover the container: level 0's
 // configuration, the blocks that place each finer level in its parent,
@@ -106,8 +123,12 @@ type Layout struct {
 	// Levels describes each level, 0 the coarsest.
 	Levels []Level
 	// Region is the fine region in SI before it is rounded to cells (zero
-	// with one level).
-	Region Region
+	// with one level), with the fine margin FineMargin (m) around each
+	// sphere and its excursion; LevelMargin is the margin of each coarser
+	// level around the next finer one, in its cells (grid.level_margin).
+	Region      Region
+	FineMargin  float64
+	LevelMargin int
 	// Excursions[i] bounds the displacement of sphere i (0-based) from its
 	// initial centre over the run, m (see [Case.Excursions]); nil with
 	// one level.
@@ -148,11 +169,13 @@ type Level struct {
 	// StokesCells is the Stokes layer sqrt(2 nu/Omega) in the level's
 	// cells (0 when nothing is periodic).
 	StokesCells float64
-	// TauFloor is the lowest tau+ the level's stability rule allows and
-	// Binding names the rule that sets it (BindingTau or BindingGridRe;
-	// BindingMinTau with one level).
+	// TauFloor is the lowest tau+ the level's stability rules allow and
+	// Binding the rule that sets it (RuleTau or RuleGridRe; RuleMinTau
+	// with one level). With more levels the floor is the same on every
+	// level (the lattice speed is), and the coarsest level, with the least
+	// tau+, comes closest to it.
 	TauFloor float64
-	Binding  string
+	Binding  LevelRule
 	// Wall and Ends report whether the level reaches the side wall and
 	// an end of the container (both ends of a periodic one).
 	Wall, Ends bool
@@ -180,6 +203,31 @@ func (l *Lattice) Layout() Layout {
 	ly.Levels = append([]Level(nil), ly.Levels...)
 	ly.Excursions = append([]float64(nil), ly.Excursions...)
 	return ly
+}
+
+// levels is grid.levels, DefaultLevels when not given (zero); so are
+// fineMargin and levelMargin for the margins. Validate and Resolve read
+// the grid through them, since a case need not have been through
+// FillDefaults.
+func (c *Case) levels() int {
+	if c.Grid.Levels == 0 {
+		return DefaultLevels
+	}
+	return c.Grid.Levels
+}
+
+func (c *Case) fineMargin() float64 {
+	if c.Grid.FineMargin == 0 {
+		return DefaultFineMargin
+	}
+	return c.Grid.FineMargin
+}
+
+func (c *Case) levelMargin() int {
+	if c.Grid.LevelMargin == 0 {
+		return DefaultLevelMargin
+	}
+	return c.Grid.LevelMargin
 }
 
 // refinement returns the number of finest cells per level-0 cell,
@@ -297,7 +345,7 @@ func (c *Case) layoutGeometry(l *Lattice) (blocks []lbm.Block, levels []Level, r
 	}
 	periodic := c.Container.Ends == EndsPeriodic
 	exc = c.Excursions()
-	region = c.fineRegion(exc, c.Grid.FineMargin*c.smallestSphere())
+	region = c.fineRegion(exc, c.fineMargin()*c.smallestSphere())
 
 	// Extents in each level's own cells from the container's lower end
 	// and the axis, as floats until they are rounded to parent cells.
@@ -306,7 +354,7 @@ func (c *Case) layoutGeometry(l *Lattice) (blocks []lbm.Block, levels []Level, r
 	glob[0] = [4]int{0, nz0, 0, nr0}
 	full := make([]bool, n) // the level spans a periodic container's whole length
 	full[0] = periodic
-	m := float64(c.Grid.LevelMargin)
+	m := float64(c.levelMargin())
 	for lev := n - 1; lev >= 1; lev-- {
 		// The block of level lev in its parent's cells, from the
 		// container's lower end.
@@ -383,6 +431,7 @@ func (c *Case) newLayout(l *Lattice) (Layout, error) {
 	blocks, levels, region, exc := c.layoutGeometry(l)
 	ly := Layout{
 		Blocks: blocks, Levels: levels, Region: region, Excursions: exc,
+		FineMargin: c.fineMargin() * c.smallestSphere(), LevelMargin: c.levelMargin(),
 		StepsPerPeriod: int(float64(l.StepsPerPeriod) / f), Steps: int(float64(l.Steps) / f),
 	}
 	// Level 0's tau and the finer ones' as lbm.NewLevels derives them
@@ -409,11 +458,11 @@ func (c *Case) newLayout(l *Lattice) (Layout, error) {
 		ly.UpdatesPerStep += float64(lv.Nz) * float64(lv.Nr) * float64(lv.Steps)
 		switch {
 		case n == 1:
-			lv.TauFloor, lv.Binding = MinTau, BindingMinTau
+			lv.TauFloor, lv.Binding = MinTau, RuleMinTau
 		case 0.5+3*uL/MaxLevelGridRe > MinLevelTau:
-			lv.TauFloor, lv.Binding = 0.5+3*uL/MaxLevelGridRe, BindingGridRe
+			lv.TauFloor, lv.Binding = 0.5+3*uL/MaxLevelGridRe, RuleGridRe
 		default:
-			lv.TauFloor, lv.Binding = MinLevelTau, BindingTau
+			lv.TauFloor, lv.Binding = MinLevelTau, RuleTau
 		}
 	}
 	ly.UniformUpdatesPerStep = float64(l.Nz) * float64(l.Nr) * f
@@ -478,7 +527,7 @@ func levelTaus(tau float64, n, lev int, magic float64) (plus, minus float64) {
 // nearOneProblem is the problem of a given grid.tau (tau, after the
 // rounding of the steps per period) that puts a level in band b.
 func (c *Case) nearOneProblem(b nearOne, tau float64) Problem {
-	n := c.Grid.Levels
+	n := c.levels()
 	plus, minus := levelTaus(tau, n, b.level, c.Solver.Magic)
 	which := fmt.Sprintf("tau+ = %.4g", plus)
 	if b.minus {
@@ -501,28 +550,28 @@ func (c *Case) nearOneProblem(b nearOne, tau float64) Problem {
 // needs of the rest of the case.
 func (c *Case) validateLevels(v *validator) {
 	g := c.Grid
-	n := g.Levels
+	n := c.levels()
 	switch {
 	case n < 1 || n > MaxLevels:
 		v.add("grid.levels", n,
 			fmt.Sprintf("must be 1 to %d: with tau+ <= %g on the finest level, the coarsest of more levels has tau+ below %g, the floor measured in %s (each coarser level halves tau+ - 1/2)",
 				MaxLevels, MaxTau, MinLevelTau, bindingSource),
-			fmt.Sprintf("use %d (one uniform lattice) or 2 to %d levels refined by 2 toward the spheres", DefaultLevels, MaxLevels))
+			fmt.Sprintf("use %d (one uniform lattice) or 2 to %d levels refined by 2 toward the spheres, or leave it out for %d", DefaultLevels, MaxLevels, DefaultLevels))
 		return
 	case n > 1 && len(c.Spheres) == 0:
 		v.add("grid.levels", n, "the levels refine toward the spheres, and the case has none",
 			fmt.Sprintf("use grid.levels = %d (one uniform lattice)", DefaultLevels))
 	}
-	if !(g.FineMargin > 0) || math.IsInf(g.FineMargin, 1) {
-		v.add("grid.fine_margin", g.FineMargin, "must be positive",
+	if fm := c.fineMargin(); !(fm > 0) || math.IsInf(fm, 1) {
+		v.add("grid.fine_margin", fm, "must be positive",
 			fmt.Sprintf("give the margin of the finest level in radii of the smallest sphere, e.g. %g", DefaultFineMargin))
-	} else if cpr := g.CellsPerRadius; n > 1 && cpr > 0 && g.FineMargin*float64(cpr) < MinFineMarginCells {
-		v.add("grid.fine_margin", g.FineMargin,
+	} else if cpr := g.CellsPerRadius; n > 1 && cpr > 0 && fm*float64(cpr) < MinFineMarginCells {
+		v.add("grid.fine_margin", fm,
 			fmt.Sprintf("is %.3g cells of the finest level (grid.cells_per_radius = %d), fewer than %d: the coarse level's restriction would reach the spheres' solid nodes",
-				g.FineMargin*float64(cpr), cpr, MinFineMarginCells),
+				fm*float64(cpr), cpr, MinFineMarginCells),
 			fmt.Sprintf("give at least %.4g radii, e.g. %g", math.Ceil(MinFineMarginCells/float64(cpr)*1e3)/1e3, DefaultFineMargin))
 	}
-	if g.LevelMargin < MinLevelMargin {
+	if c.levelMargin() < MinLevelMargin {
 		v.add("grid.level_margin", g.LevelMargin,
 			fmt.Sprintf("must be at least %d: a side of a finer level that does not touch the container lies at least %d cells of its parent inside it (lbm.Block)", MinLevelMargin, MinLevelMargin),
 			fmt.Sprintf("give the margin in cells of the coarser level, e.g. %d", DefaultLevelMargin))
@@ -537,7 +586,7 @@ func (c *Case) validateLevels(v *validator) {
 			fmt.Sprintf("use %q, or grid.levels = %d", CollisionTRT, DefaultLevels))
 	case CollisionBGK:
 		v.add("solver.collision", col,
-			fmt.Sprintf("grid.levels = %d needs TRT: the per-level stability rule is measured for TRT (%s; with the axisymmetric terms BGK was unstable at tau+ = 0.5025 at every speed tried, down to 1e-5)", n, bindingSource),
+			fmt.Sprintf("grid.levels = %d needs TRT: the per-level stability rule is measured for TRT (%s; with the axisymmetric terms BGK was unstable at tau+ = %g at every speed tried, down to 1e-5)", n, bindingSource, MinLevelTau),
 			fmt.Sprintf("use %q, or grid.levels = %d", CollisionTRT, DefaultLevels))
 	}
 	if g.Tau > 0.5 && c.Solver.Magic > 0 {

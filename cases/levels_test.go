@@ -80,6 +80,15 @@ func TestLayoutOneLevel(t *testing.T) {
 	}
 	l := resolve(t, c)
 	ly := l.Layout()
+	// Zero means not given, as for the other keys whose zero is not a
+	// value (cell_size, tau, ...): a case made without Default (as the
+	// verification rows make theirs) or with levels = 0 in its file is
+	// one uniform lattice.
+	bare := *c
+	bare.Grid = cases.Grid{CellsPerRadius: 12}
+	if lb := resolve(t, &bare); lb.Levels != 1 || lb.Nz != l.Nz || lb.Dt != l.Dt {
+		t.Errorf("grid without levels: %d levels, %d cells, dt %g; want the demo's", lb.Levels, lb.Nz, lb.Dt)
+	}
 	want := lbm.Config{Nz: l.Nz, Nr: l.Nr, Tau: l.Tau, Collision: lbm.TRT, Magic: c.Solver.Magic, Axisymmetric: true}
 	if ly.Base != want {
 		t.Errorf("Base = %+v, want %+v", ly.Base, want)
@@ -91,7 +100,7 @@ func TestLayoutOneLevel(t *testing.T) {
 		t.Errorf("ratio %g, memory %d (lattice %d), steps %d/%d (lattice %d/%d)", ly.Ratio(), ly.MemoryBytes, l.MemoryBytes(),
 			ly.Steps, ly.StepsPerPeriod, l.Steps, l.StepsPerPeriod)
 	}
-	if lv := ly.Levels[0]; lv.Tau != l.Tau || lv.Dx != l.Dx || lv.Nz != l.Nz || lv.Binding != cases.BindingMinTau {
+	if lv := ly.Levels[0]; lv.Tau != l.Tau || lv.Dx != l.Dx || lv.Nz != l.Nz || lv.Binding != cases.RuleMinTau {
 		t.Errorf("level 0 = %+v", lv)
 	}
 }
@@ -437,7 +446,7 @@ func TestLevelWarnings(t *testing.T) {
 	ly := l.Layout()
 	near(t, "level 0's cell", ly.Levels[0].Dx, 0.001, 1e-12)
 	near(t, "level 0's grid Reynolds number", ly.Levels[0].ReGrid, 0.21991148575*0.001/(0.012/1180), 1e-9)
-	if ly.Levels[0].Binding != cases.BindingGridRe || ly.Levels[0].Tau >= ly.Levels[0].TauFloor {
+	if ly.Levels[0].Binding != cases.RuleGridRe || ly.Levels[0].Tau >= ly.Levels[0].TauFloor {
 		t.Errorf("level 0: tau+ %.6f, floor %.6f (%s); want the Re_g floor, above tau+", ly.Levels[0].Tau, ly.Levels[0].TauFloor, ly.Levels[0].Binding)
 	}
 	found := false

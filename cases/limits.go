@@ -140,7 +140,7 @@ func (c *Case) timeStepConflict(conflicts []string, nuMin, upper float64, floor 
 	if strings.Contains(joined, "Mach") {
 		p.Fix += ", or lower the reference speed (the amplitude or frequency of the shaking or of the arm strokes)"
 	}
-	if n := c.Grid.Levels; n > 2 { // one level has the higher floor MinTau
+	if n := c.levels(); n > 2 { // one level has the higher floor MinTau
 		p.Fix += fmt.Sprintf(", or use fewer levels (grid.levels = %d halves the floor)", n-1)
 	}
 	p.Fix += "; or give grid.tau to accept the violation"

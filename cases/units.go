@@ -142,7 +142,7 @@ func (c *Case) grid() (g gridSpec, ok bool) {
 	if !finitePositive(g.dxNom) || !finitePositive(R) || !finitePositive(L) {
 		return g, false
 	}
-	if g.levels = c.Grid.Levels; g.levels < 1 || g.levels > MaxLevels {
+	if g.levels = c.levels(); g.levels < 1 || g.levels > MaxLevels {
 		return g, false
 	}
 	f := refinement(g.levels) // 1 with one level: the arithmetic of one uniform lattice
