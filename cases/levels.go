@@ -38,12 +38,14 @@ const (
 	MinFineMarginCells = 6
 	// DefaultLevelMargin is the margin of each coarser level around the
 	// next finer one, in the coarser level's cells: twice MinLevelMargin.
-	// At the minimum the coarse cells that the finer level's ghosts
-	// interpolate from (a 3 x 3 quadratic stencil reaching 2 cells outside
-	// the finer block) include the coarse level's first row, the one that
-	// streams from the coarse level's own ghosts, themselves interpolated
-	// from the level above; 4 keeps the stencils of the two interfaces of
-	// a level apart. It costs little: on issue 17's speed case (the demo
+	// The finer level's ghosts interpolate from the coarser level's cells
+	// m-2 to m from its own edge (a 3 x 3 quadratic stencil reaching 2
+	// cells outside the finer block, lbm.Levels), m the margin. At m = 2
+	// that stencil takes the coarser level's first cell, which streams
+	// straight from its own ghosts, themselves interpolated from the level
+	// above: interpolation would feed interpolation. At 4 the stencil is
+	// two cells clear of it. (A choice from the stencils, not measured.)
+	// It costs little: on issue 17's speed case (the demo
 	// at 24 cells per radius in a container 4 times as wide and long, 4
 	// levels) the node updates per period are 1.58% of the uniform
 	// lattice of the finest spacing at 2 cells, 1.60% at 4 and 1.64% at 8
@@ -251,11 +253,13 @@ func (c *Case) driveDisplacement() float64 {
 // freeRatio is the inviscid amplitude of a free sphere of density rho_s
 // relative to a liquid of density rho_f that oscillates with unit
 // amplitude, |rho_s - rho_f|/(rho_s + rho_f/2) (potential flow, added mass
-// C_A = 1/2: METHODS.md 11.1; Landau & Lifshitz, Fluid Mechanics, §11).
-// It is an upper bound at every frequency for a sphere alone: the viscous
-// forces (Stokes drag, Basset force) act on the relative motion only and
-// enlarge its impedance, while the driving force (rho_f - rho_s) Vol a
-// stays the same.
+// C_A = 1/2: METHODS.md 11.1). It bounds the amplitude at every frequency
+// for a sphere alone: with the unsteady Stokes force (Landau & Lifshitz,
+// Fluid Mechanics, §24 problem 5; drive/model) the relative velocity is
+// V = (m - rho_f Vol) a_c/(i omega m - Z), and |i omega m - Z| >= omega
+// (m + rho_f Vol/2), since the drag and Basset terms of Z add to its real
+// part and to the added mass in its imaginary part, while the driving
+// force stays the same.
 func freeRatio(rhoS, rhoF float64) float64 {
 	return math.Abs(rhoS-rhoF) / (rhoS + rhoF/2)
 }
