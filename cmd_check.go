@@ -88,6 +88,9 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 		}
 	}
 
+	if l.Levels > 1 {
+		return checkLevels(stdout, stderr, c, l, *threads, *quiet)
+	}
 	fmt.Fprintln(stdout, "\nlattice:")
 	fmt.Fprintf(stdout, "  grid            %d x %d cells (z x r), %d nodes\n", l.Nz, l.Nr, l.Nz*l.Nr)
 	fmt.Fprintf(stdout, "  cell size       %.5g m (container %.5g m long, %.5g m radius as resolved)\n", l.Dx, l.Length, l.Radius)
@@ -134,17 +137,26 @@ func cmdCheck(args []string, stdout, stderr io.Writer) error {
 	if l.Single {
 		prec = "float32"
 	}
-	fmt.Fprintf(stdout, "  kernel          %s, %s storage of the populations\n", sim.Fluid.Kernel().Describe(), prec)
+	printKernel(stdout, sim.Fluid.Kernel(), prec)
+	printWarnings(stdout, l.Warnings)
+	return nil
+}
+
+// printKernel prints the kernel path and the storage of the populations.
+func printKernel(stdout io.Writer, k lbm.KernelPath, prec string) {
+	fmt.Fprintf(stdout, "  kernel          %s, %s storage of the populations\n", k.Describe(), prec)
 	fmt.Fprintf(stdout, "                  %s (%s = %s to choose; all give the same bits)\n",
 		lbm.KernelOrigin(), lbm.KernelEnv, lbm.KernelNames(lbm.Kernels()))
+}
 
-	if len(l.Warnings) > 0 {
+// printWarnings prints the warnings of a lattice, if any.
+func printWarnings(stdout io.Writer, warnings []string) {
+	if len(warnings) > 0 {
 		fmt.Fprintln(stdout, "\nwarnings:")
-		for _, w := range l.Warnings {
+		for _, w := range warnings {
 			fmt.Fprintf(stdout, "  %s\n", w)
 		}
 	}
-	return nil
 }
 
 func bytesString(b int64) string {

@@ -278,6 +278,105 @@ func TestBadCaseMessages(t *testing.T) {
 			reason: []string{"the 2000000 x 500000 grid needs about ", "GiB, more than the limit of "},
 			remedy: []string{"fix: use fewer cells (coarser grid) or a smaller container"},
 		},
+		{
+			// 1e5 cells per 1 mm radius on 2 levels: level 0 alone is a
+			// 1e6 x 2.5e5 grid, some 50 TiB
+			name:   "levels too big for memory",
+			edits:  []string{"cells_per_radius = 8", "cells_per_radius = 100000\nlevels = 2"},
+			stage:  stageValidate,
+			key:    "grid.cells_per_radius",
+			value:  "100000",
+			reason: []string{"the 2 levels need about ", "GiB, more than the limit of "},
+			remedy: []string{"fix: use fewer cells (coarser grid), more levels, smaller margins"},
+		},
+		{
+			name:   "negative levels",
+			edits:  []string{"cells_per_radius = 8", "cells_per_radius = 8\nlevels = -1"},
+			stage:  stageValidate,
+			key:    "grid.levels",
+			value:  "-1",
+			reason: []string{"must be 1 to 8", "the coarsest of more levels has tau+ below 0.5025", "benchmarks/taustability"},
+			remedy: []string{"fix: use 1 (one uniform lattice) or 2 to 8 levels"},
+		},
+		{
+			name:   "too many levels",
+			edits:  []string{"cells_per_radius = 8", "cells_per_radius = 8\nlevels = 9"},
+			stage:  stageValidate,
+			key:    "grid.levels",
+			value:  "9",
+			reason: []string{"must be 1 to 8"},
+			remedy: []string{"fix: use 1 (one uniform lattice) or 2 to 8 levels"},
+		},
+		{
+			// 8 cells per radius of 1 mm on 6 levels: level 0's nominal
+			// cell is 32 x 0.125 = 4 mm, 1.25 across the 5 mm radius,
+			// rounded to 1 (of 5 mm), and 20/5 = 4 along
+			name:   "level 0 too coarse",
+			edits:  []string{"cells_per_radius = 8", "cells_per_radius = 8\nlevels = 6"},
+			stage:  stageValidate,
+			key:    "grid.levels",
+			value:  "6",
+			reason: []string{"level 0 has only 4 x 1 cells (z x r) of 0.005 m"},
+			remedy: []string{"fix: use fewer levels, or raise grid.cells_per_radius"},
+		},
+		{
+			name:   "MRT on levels",
+			edits:  []string{"cells_per_radius = 8", "cells_per_radius = 8\nlevels = 2\n[solver]\ncollision = \"mrt\""},
+			stage:  stageValidate,
+			key:    "solver.collision",
+			value:  `"mrt"`,
+			reason: []string{"grid.levels = 2 needs TRT", "not written for MRT (lbm.NewLevels refuses it)"},
+			remedy: []string{`fix: use "trt", or grid.levels = 1`},
+		},
+		{
+			name:   "BGK on levels",
+			edits:  []string{"cells_per_radius = 8", "cells_per_radius = 8\nlevels = 2\n[solver]\ncollision = \"bgk\""},
+			stage:  stageValidate,
+			key:    "solver.collision",
+			value:  `"bgk"`,
+			reason: []string{"grid.levels = 2 needs TRT", "measured for TRT", "BGK was unstable at tau+ = 0.5025"},
+			remedy: []string{`fix: use "trt", or grid.levels = 1`},
+		},
+		{
+			// 0.5 radii of 8 cells: 4 cells
+			name:   "fine margin too thin",
+			edits:  []string{"cells_per_radius = 8", "cells_per_radius = 8\nlevels = 2\nfine_margin = 0.5"},
+			stage:  stageValidate,
+			key:    "grid.fine_margin",
+			value:  "0.5",
+			reason: []string{"is 4 cells of the finest level (grid.cells_per_radius = 8), fewer than 6"},
+			remedy: []string{"fix: give at least 0.75 radii"},
+		},
+		{
+			name:   "negative fine margin",
+			edits:  []string{"cells_per_radius = 8", "cells_per_radius = 8\nfine_margin = -1.0"},
+			stage:  stageValidate,
+			key:    "grid.fine_margin",
+			value:  "-1",
+			reason: []string{"must be positive"},
+			remedy: []string{"fix: give the margin of the finest level in radii of the smallest sphere, e.g. 2"},
+		},
+		{
+			name:   "level margin of one cell",
+			edits:  []string{"cells_per_radius = 8", "cells_per_radius = 8\nlevels = 2\nlevel_margin = 1"},
+			stage:  stageValidate,
+			key:    "grid.level_margin",
+			value:  "1",
+			reason: []string{"must be at least 2", "(lbm.Block)"},
+			remedy: []string{"fix: give the margin in cells of the coarser level, e.g. 4"},
+		},
+		{
+			// tau = 0.88 on 2 levels: the finest level's tau- is
+			// 1/2 + 0.1875/0.38 = 0.9934; the band of tau- within 0.05 of
+			// 1 is tau+ in (1/2 + 0.1875/0.55, 1/2 + 0.1875/0.45)
+			name:   "a level's tau- near 1",
+			edits:  []string{"cells_per_radius = 8", "cells_per_radius = 8\nlevels = 2\ntau = 0.88"},
+			stage:  stageValidate,
+			key:    "grid.tau",
+			value:  "0.88",
+			reason: []string{"level 1 of 2 would have tau- = 0.9934", "within 0.05 of 1", "(lbm.Levels)"},
+			remedy: []string{"fix: give grid.tau at most 0.8409 or at least 0.9167", "or change solver.magic"},
+		},
 	}
 	for _, r := range rows {
 		t.Run(r.name, func(t *testing.T) {

@@ -60,7 +60,7 @@ func TestParseUnknownKeys(t *testing.T) {
 		{"container.Ends", 10, "ends"},
 		{"sphere[2].radus", 22, "radius"},
 		{"solvr", 27, "solver"},
-		{"grid.colour", 31, `"cell_size", "cells_per_radius", "tau"`},
+		{"grid.colour", 31, `"cell_size", "cells_per_radius", "fine_margin", "level_margin", "levels", "tau"`},
 		{"run.grid", 35, ""},
 	}
 	if len(ke) != len(want) {

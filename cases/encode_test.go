@@ -88,7 +88,8 @@ func TestWriteTOMLControlCharacters(t *testing.T) {
 
 // TestWriteTOMLGolden: the case file WriteTOML writes for each embedded
 // example, and for testdata/written/every-key.in (harmonics, a spring, an
-// arm without frequency, given tau and cell_size, an unshaken run), is the
+// arm without frequency, given tau and cell_size, levels and margins, an
+// unshaken run), is the
 // one in testdata/written, byte for byte.
 func TestWriteTOMLGolden(t *testing.T) {
 	srcs := make(map[string][]byte)

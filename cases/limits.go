@@ -33,6 +33,16 @@ func (c *Case) ArmFrequency(a Arm) float64 {
 	return a.Frequency
 }
 
+// armStart is the centre-to-centre distance arm a prescribes at t = 0: the
+// ramp starts the stroke from zero amplitude.
+func (c *Case) armStart(a Arm) float64 {
+	want := a.Length
+	if c.Shaking.RampPeriods == 0 {
+		want += a.Amplitude * math.Sin(a.Phase*math.Pi/180)
+	}
+	return want
+}
+
 // strokeSpeed is the velocity amplitude 2π f A of the stroke of arm a.
 func (c *Case) strokeSpeed(a Arm) float64 {
 	return 2 * math.Pi * c.ArmFrequency(a) * a.Amplitude
@@ -104,11 +114,15 @@ func (c *Case) wallSpeed() float64 {
 // Problem on the resolution key. Both the Mach and the acoustic bound on
 // ν_L grow in proportion to 1/Δx (see Resolve), so refining the grid by
 // nuMin/upper clears them.
-func (c *Case) timeStepConflict(conflicts []string, nuMin, upper float64) error {
+//
+// floor says where the floor comes from: "tau >= 0.51, METHODS.md 10.1"
+// on one uniform lattice, the coarsest level's tau+ with more levels (the
+// floor halves with each level fewer, which the fix then says too).
+func (c *Case) timeStepConflict(conflicts []string, nuMin, upper float64, floor string) error {
 	factor := nuMin / upper * 1.02 // a margin for the rounding of Nr and of the steps
 	p := Problem{
-		Reason: fmt.Sprintf("no admissible time step: %s, below the floor nu_L >= %.3g (tau >= %g, METHODS.md 10.1)",
-			strings.Join(conflicts, " and "), nuMin, MinTau),
+		Reason: fmt.Sprintf("no admissible time step: %s, below the floor nu_L >= %.3g (%s)",
+			strings.Join(conflicts, " and "), nuMin, floor),
 	}
 	if len(c.Spheres) > 0 {
 		p.Key, p.Value = "grid.cells_per_radius", formatValue(c.Grid.CellsPerRadius)
@@ -125,6 +139,9 @@ func (c *Case) timeStepConflict(conflicts []string, nuMin, upper float64) error 
 	}
 	if strings.Contains(joined, "Mach") {
 		p.Fix += ", or lower the reference speed (the amplitude or frequency of the shaking or of the arm strokes)"
+	}
+	if n := c.levels(); n > 2 { // one level has the higher floor MinTau
+		p.Fix += fmt.Sprintf(", or use fewer levels (grid.levels = %d halves the floor)", n-1)
 	}
 	p.Fix += "; or give grid.tau to accept the violation"
 	return Problems{p}
@@ -148,7 +165,7 @@ func (c *Case) warnings(l *Lattice) []string {
 		if l.Tau > MaxTau {
 			warn("tau = %.4g exceeds %g (METHODS.md 10.1); the acoustic error grows with tau (10.3)", l.Tau, MaxTau)
 		}
-		if l.Tau < MinTau {
+		if l.Levels <= 1 && l.Tau < MinTau {
 			warn("tau = %.4g is below %g (METHODS.md 10.1): close to the stability limit 1/2", l.Tau, MinTau)
 		}
 	}
@@ -203,6 +220,9 @@ func (c *Case) warnings(l *Lattice) []string {
 		}
 	}
 	c.bodyWarnings(l, warn)
+	if l.Levels > 1 {
+		c.levelWarnings(l, warn)
+	}
 	if l.StepsPerPeriod > 0 && c.Run.SamplesPerPeriod > l.StepsPerPeriod {
 		warn("run.samples_per_period = %d exceeds the %d steps per period: sampling every step",
 			c.Run.SamplesPerPeriod, l.StepsPerPeriod)
@@ -249,12 +269,7 @@ func (c *Case) bodyWarnings(l *Lattice, warn func(format string, args ...any)) {
 			warn("arm[%d] stroke Reynolds number 2 pi f A 2a/nu = %.3g exceeds %g: the flow is likely not axisymmetric (Natarajan & Acrivos 1993; Johnson & Patel 1999)",
 				k+1, re, MaxSphereRe)
 		}
-		// The prescribed distance at t = 0: the ramp starts the stroke
-		// from zero amplitude.
-		want := a.Length
-		if c.Shaking.RampPeriods == 0 {
-			want += a.Amplitude * math.Sin(a.Phase*math.Pi/180)
-		}
+		want := c.armStart(a)
 		if d := math.Abs(sj.Z - si.Z); math.Abs(d-want) > 1e-6*want {
 			sign := 1.0
 			if sj.Z < si.Z {
@@ -262,6 +277,41 @@ func (c *Case) bodyWarnings(l *Lattice, warn func(format string, args ...any)) {
 			}
 			warn("arm[%d] prescribes a distance of %.6g m at t = 0 but spheres %d and %d are placed %.6g m apart: the arm sets the distance, so the run does not start from the positions in the file; set sphere[%d].z = %.6g m to make them agree",
 				k+1, want, a.Spheres[0], a.Spheres[1], d, a.Spheres[1], si.Z+sign*want)
+		}
+	}
+}
+
+// levelWarnings warns about the levels of a refined lattice: a level below
+// the measured floor of tau+ (only with grid.tau given: otherwise the time
+// step keeps it), above the grid Reynolds number of the per-level rule
+// (benchmarks/taustability), a level that covers all of its parent, and a
+// side wall's Stokes layer on a coarse level where the drive acts on the
+// liquid.
+func (c *Case) levelWarnings(l *Lattice, warn func(format string, args ...any)) {
+	ly := l.layout
+	for k, lv := range ly.Levels {
+		if lv.Tau < MinLevelTau {
+			warn("level %d has tau+ = %.5g, below %g, the smallest measured (%s): it may be unstable; raise grid.tau or use fewer levels",
+				k, lv.Tau, MinLevelTau, bindingSource)
+		}
+		if lv.ReGrid > MaxLevelGridRe {
+			warn("level %d has a grid Reynolds number of %.3g at the reference speed %.3g m/s, above %g (%s: steady flow along the axis failed from about 60): raise grid.cells_per_radius or use fewer levels (the far field is slower than the reference speed: this is the cautious reading)",
+				k, lv.ReGrid, l.RefVelocity, MaxLevelGridRe, bindingSource)
+		}
+		if k > 0 {
+			if b, p := ly.Blocks[k-1], ly.Levels[k-1]; b.Nz == p.Nz && b.Nr == p.Nr {
+				warn("level %d covers all of level %d (the fine region with its margins fills it): level %d only adds work; use fewer levels, smaller margins or a larger container",
+					k, k-1, k-1)
+			}
+		}
+	}
+	if c.Container.Ends == EndsPeriodic && c.Shaken() {
+		for k, lv := range ly.Levels {
+			if lv.Wall && lv.StokesCells < MinStokesCells {
+				warn("the side wall lies on level %d, where its Stokes layer is %.2f cells thick, below %g (METHODS.md 10.1): with periodic ends the drive acts on the liquid and the wall's Stokes layer carries it; use fewer levels or a finer grid",
+					k, lv.StokesCells, MinStokesCells)
+				break
+			}
 		}
 	}
 }

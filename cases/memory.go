@@ -19,8 +19,12 @@ func memoryBytes(nz, nr float64, single bool) float64 {
 	return float64(lbm.BytesPerNode(single)) * (nz + 2) * (nr + 2)
 }
 
-// MemoryBytes is the estimated memory of the lattice, in bytes.
+// MemoryBytes is the estimated memory of the lattice, in bytes: on refined
+// levels, of all levels (Layout.MemoryBytes).
 func (l *Lattice) MemoryBytes() int64 {
+	if l.Levels > 1 {
+		return l.layout.MemoryBytes
+	}
 	return int64(memoryBytes(float64(l.Nz), float64(l.Nr), l.Single))
 }
 

@@ -216,9 +216,27 @@ type Grid struct {
 	// CellSize is the nominal cell size in metres. It is required, and
 	// allowed, only when there is no sphere.
 	CellSize float64 `toml:"cell_size,omitzero" note:"m"`
-	// Tau is the relaxation time τ⁺. Zero means not given: Resolve then
-	// chooses the time step from the stability limits.
+	// Tau is the relaxation time τ⁺ (of the finest level). Zero means not
+	// given: Resolve then chooses the time step from the stability limits.
 	Tau float64 `toml:"tau,omitzero" note:"relaxation time" unset:"tau not given: the time step is chosen from the stability limits"`
+	// Levels is the number of nested levels refined by 2 (issue 17;
+	// default 1, one uniform lattice; at most MaxLevels; zero means not
+	// given). With more,
+	// level 0 covers the container with cells 2^(levels-1) times as wide
+	// as the finest level's, and each finer level covers a block of its
+	// parent around the spheres (see [Lattice.Layout]); CellsPerRadius is
+	// the finest level's.
+	Levels int `toml:"levels,omitzero" note:"nested levels refined by 2 toward the spheres (1: one uniform lattice)"`
+	// FineMargin is the margin of the finest level around every sphere
+	// and its excursion, in radii of the smallest sphere (default 2, the
+	// issue's "about two small-sphere radii"; zero means not given). Used
+	// only with Levels > 1.
+	FineMargin float64 `toml:"fine_margin,omitzero" note:"finest level around each sphere and its excursion, in radii of the smallest sphere (levels > 1)"`
+	// LevelMargin is the margin of each coarser level around the next
+	// finer one, in the coarser level's cells (default
+	// DefaultLevelMargin; at least 2, the coupling's rule; zero means not
+	// given). Used only with Levels > 1.
+	LevelMargin int `toml:"level_margin,omitzero" note:"each coarser level around the next finer one, in its cells (levels > 1)"`
 }
 
 // Solver is the [solver] section.
@@ -276,8 +294,8 @@ type Output struct {
 
 // FillDefaults fills in every optional value that is zero (that is, not
 // given) and whose default follows from the rest of the case:
-// ends, collision, magic, coupling and repulsion_range; cells_per_radius
-// when there are spheres and no cell_size; the frequency of each arm from
+// ends, collision, magic, coupling and repulsion_range; the grid's levels
+// and margins; cells_per_radius when there are spheres and no cell_size; the frequency of each arm from
 // the shaking; samples_per_period for periodic cases (shaken, or with an
 // arm) or sample_interval for the others, unless either is given; and the
 // rest length of each spring that joins two existing spheres. It leaves
@@ -307,6 +325,7 @@ func (c *Case) FillDefaults() {
 	if c.Solver.Magic == 0 {
 		c.Solver.Magic = DefaultMagic
 	}
+	c.Grid.Levels, c.Grid.FineMargin, c.Grid.LevelMargin = c.levels(), c.fineMargin(), c.levelMargin()
 	if len(c.Spheres) > 0 && c.Grid.CellsPerRadius == 0 && c.Grid.CellSize == 0 {
 		c.Grid.CellsPerRadius = DefaultCellsPerRadius
 	}

@@ -3,6 +3,8 @@ package cases
 import (
 	"fmt"
 	"math"
+
+	"axiswim/lbm"
 )
 
 // Cs is the lattice speed of sound, 1/√3 (METHODS.md 1.1).
@@ -41,6 +43,10 @@ const (
 	// one); it names the floor in the error when the limits conflict.
 	BoundTauMin = "tau_min"
 	BoundGiven  = "given" // grid.tau was given
+	// BoundLevelTau: the upper limits put a level's tau+ or tau- within
+	// lbm.TauCloseToOne of 1, and the time step was lowered below that
+	// (grid.levels > 1).
+	BoundLevelTau = "level_tau"
 )
 
 // A Lattice is a case mapped to lattice units (METHODS.md 11.2): the grid,
@@ -95,20 +101,33 @@ type Lattice struct {
 
 	Bound    string   // the limit that chose the time step: BoundMach, ..., BoundGiven
 	Warnings []string // limits that are violated or nearly so, one sentence each
+
+	// Levels is grid.levels: 1 is one uniform lattice; with more, Dx, Dt,
+	// Tau and NuL are the finest level's and Nz x Nr the uniform lattice
+	// of that spacing (see Resolve and Layout).
+	Levels int
+	layout Layout // made by Resolve; see Layout
 }
 
 // gridSpec is the grid a case asks for. Counts are float64 so that absurd
 // inputs cannot overflow before Validate rejects them.
 type gridSpec struct {
 	dxNom, dx float64
-	nz, nr    float64
+	nz, nr    float64 // cells of the finest spacing across the container
+	// levels is grid.levels; nz0 x nr0 are level 0's cells, nz x nr over
+	// 2^(levels-1) (equal to them with one level).
+	levels   int
+	nz0, nr0 float64
 }
 
 // grid computes the grid (METHODS.md 11.2 step 2): the nominal cell size
 // is the smallest sphere radius over cells_per_radius, or cell_size
 // without spheres; Nr = round(R/dx_nominal) and then Dx = R/Nr exactly, so
 // that the container wall sits exactly at R under halfway bounce-back;
-// Nz = round(L/Dx). ok is false if the inputs do not define a grid.
+// Nz = round(L/Dx). With grid.levels > 1 the same is done for level 0,
+// whose nominal cell is 2^(levels-1) times the finest's: the container is
+// rounded to whole coarsest cells, and the finest cell is level 0's over
+// 2^(levels-1). ok is false if the inputs do not define a grid.
 func (c *Case) grid() (g gridSpec, ok bool) {
 	R, L := c.Container.Radius, c.Container.Length
 	if len(c.Spheres) > 0 {
@@ -123,12 +142,18 @@ func (c *Case) grid() (g gridSpec, ok bool) {
 	if !finitePositive(g.dxNom) || !finitePositive(R) || !finitePositive(L) {
 		return g, false
 	}
-	g.nr = math.Round(R / g.dxNom)
-	g.dx = g.dxNom
-	if g.nr >= 1 {
-		g.dx = R / g.nr
+	if g.levels = c.levels(); g.levels < 1 || g.levels > MaxLevels {
+		return g, false
 	}
-	g.nz = math.Round(L / g.dx)
+	f := refinement(g.levels) // 1 with one level: the arithmetic of one uniform lattice
+	dx0 := g.dxNom * f
+	g.nr0 = math.Round(R / dx0)
+	if g.nr0 >= 1 {
+		dx0 = R / g.nr0
+	}
+	g.nz0 = math.Round(L / dx0)
+	g.dx = dx0 / f
+	g.nr, g.nz = g.nr0*f, g.nz0*f
 	return g, true
 }
 
@@ -155,6 +180,21 @@ func finitePositive(x float64) bool { return x > 0 && !math.IsInf(x, 1) }
 // conflicting limits and the resolution that would clear them. When tau is
 // given it is used (adjusted slightly, with shaking, to make the period a
 // whole number of steps) and every limit it violates is a warning.
+//
+// With grid.levels > 1 the lattice's Dx, Dt, Tau and NuL are the finest
+// level's, Nz x Nr the uniform lattice of that spacing over the container
+// (2^(levels-1) times level 0's cells each way), and the limits are those
+// of a refined lattice: the upper ones as above (the Mach and acoustic
+// numbers are the same on every level under acoustic scaling, tau_max
+// applies to the finest level, which has the largest tau), and instead of
+// tau_min the floor of the coarsest level, τ⁺ >= MinLevelTau
+// (benchmarks/taustability), that is 3ν_L >= 2^(levels-1) (MinLevelTau -
+// 1/2) on the finest level. No level's τ⁺ or τ⁻ may lie within
+// lbm.TauCloseToOne of 1 (the coupling rescales by τ - 1, lbm.Levels):
+// the time step is lowered below such a band (Bound = BoundLevelTau). The
+// steps per period are rounded up to a whole number of level-0 steps, so
+// Lattice.StepsPerPeriod and Steps are multiples of 2^(levels-1). The
+// levels themselves are in [Lattice.Layout].
 func Resolve(c *Case) (*Lattice, error) {
 	if err := c.Validate(); err != nil {
 		return nil, fmt.Errorf("invalid case: %w", err)
@@ -166,10 +206,12 @@ func Resolve(c *Case) (*Lattice, error) {
 		Dx:      g.dx,
 		Nz:      int(g.nz),
 		Nr:      int(g.nr),
+		Levels:  g.levels,
 		Density: c.Fluid.Density,
 		Nu:      nu,
 		Omega:   2 * math.Pi * c.PeriodFrequency(),
 	}
+	f := refinement(l.Levels) // finest steps per level-0 step
 	l.OmegaMax = c.maxForcingOmega()
 	l.Length = float64(l.Nz) * l.Dx
 	l.Radius = float64(l.Nr) * l.Dx
@@ -193,6 +235,12 @@ func Resolve(c *Case) (*Lattice, error) {
 		limits[2].nuL = MaxMach * Cs * nu / (l.RefVelocity * l.Dx)
 	}
 	nuMin := (MinTau - 0.5) / 3
+	floor := fmt.Sprintf("tau >= %g, METHODS.md 10.1", MinTau)
+	bands := nearOneBands(l.Levels, c.Solver.Magic)
+	if l.Levels > 1 {
+		nuMin = f * (MinLevelTau - 0.5) / 3
+		floor = fmt.Sprintf("of the finest level: the coarsest of %d levels needs tau+ >= %g, %s", l.Levels, MinLevelTau, bindingSource)
+	}
 	upper, bound := limits[0].nuL, limits[0].name
 	for _, lim := range limits[1:] {
 		if lim.nuL < upper {
@@ -207,15 +255,32 @@ func Resolve(c *Case) (*Lattice, error) {
 	}
 	if c.Grid.Tau == 0 {
 		l.Bound = bound
-		l.Dt = upper * dx2 / nu
-		if period > 0 {
-			// Round the steps per period up: a shorter step keeps every
-			// upper limit. The guard keeps an exact integer from gaining a
-			// step through round-off.
-			spp := math.Ceil(period / l.Dt * (1 - 1e-12))
-			l.Dt = period / spp
+		nuL := upper
+		// roundSteps sets the time step of nuL, with the steps per period
+		// rounded up to whole level-0 steps: a shorter step keeps every
+		// upper limit. The guard keeps an exact integer from gaining a
+		// step through round-off.
+		roundSteps := func(nuL float64) {
+			l.Dt = nuL * dx2 / nu
+			if period > 0 {
+				spp := math.Ceil(period / (l.Dt * f) * (1 - 1e-12))
+				l.Dt = period / (spp * f)
+			}
+			l.NuL = nu * l.Dt / dx2
 		}
-		l.NuL = nu * l.Dt / dx2
+		roundSteps(nuL)
+		// Below any band of a level's tau near 1: its lower edge, a hair
+		// under; the rounding lowers nu_L again, by less than one part in
+		// the steps per period, which may land in a lower band: try again.
+		for range 2 * len(bands) {
+			b, in := inBand(bands, l.NuL)
+			if !in {
+				break
+			}
+			l.Bound = BoundLevelTau
+			nuL = b.lo * (1 - 1e-9)
+			roundSteps(nuL)
+		}
 		var conflicts []string
 		switch {
 		case upper < nuMin:
@@ -224,39 +289,47 @@ func Resolve(c *Case) (*Lattice, error) {
 					conflicts = append(conflicts, fmt.Sprintf("%s needs nu_L <= %.3g", lim.desc, lim.nuL))
 				}
 			}
+		case l.NuL < nuMin*(1-1e-12) && l.Bound == BoundLevelTau:
+			conflicts = append(conflicts, fmt.Sprintf("keeping every level's tau+ and tau- at least %g from 1 (lbm.Levels rescales by tau - 1) needs nu_L <= %.3g",
+				lbm.TauCloseToOne, l.NuL))
 		case l.NuL < nuMin*(1-1e-12):
 			conflicts = append(conflicts, fmt.Sprintf("%s needs nu_L <= %.3g once the steps per period are rounded up",
 				boundDesc(limits, bound), l.NuL))
 		}
 		if len(conflicts) > 0 {
-			return nil, c.timeStepConflict(conflicts, nuMin, min(upper, l.NuL))
+			return nil, c.timeStepConflict(conflicts, nuMin, min(upper, l.NuL), floor)
 		}
 	} else {
 		l.Bound = BoundGiven
 		l.NuL = (c.Grid.Tau - 0.5) / 3
 		l.Dt = l.NuL * dx2 / nu
 		if period > 0 {
-			spp := math.Max(1, math.Round(period/l.Dt))
-			l.Dt = period / spp
+			spp := math.Max(1, math.Round(period/(l.Dt*f)))
+			l.Dt = period / (spp * f)
 			l.NuL = nu * l.Dt / dx2
+		}
+		// The rounding moves tau by less than a part in the steps per
+		// period; Validate has kept the given tau out of the bands.
+		if b, in := inBand(bands, l.NuL); in {
+			return nil, Problems{c.nearOneProblem(b, 3*l.NuL+0.5)}
 		}
 	}
 	l.Tau = 3*l.NuL + 0.5
 
 	if period > 0 {
-		spp := math.Round(period / l.Dt)
+		spp := math.Round(period / (l.Dt * f))
 		steps := spp * float64(c.Run.Periods)
-		if steps > 1<<53 {
-			return nil, fmt.Errorf("resolve case: %.3g steps is too many to run", steps)
+		if steps*f > 1<<53 {
+			return nil, fmt.Errorf("resolve case: %.3g steps is too many to run", steps*f)
 		}
-		l.StepsPerPeriod = int(spp)
-		l.Steps = int(steps)
+		l.StepsPerPeriod = int(spp * f)
+		l.Steps = int(steps * f)
 	} else {
-		steps := math.Ceil(c.Run.Duration / l.Dt * (1 - 1e-12))
-		if steps > 1<<53 {
-			return nil, fmt.Errorf("resolve case: %.3g steps is too many to run", steps)
+		steps := math.Ceil(c.Run.Duration / (l.Dt * f) * (1 - 1e-12))
+		if steps*f > 1<<53 {
+			return nil, fmt.Errorf("resolve case: %.3g steps is too many to run", steps*f)
 		}
-		l.Steps = int(max(steps, 1))
+		l.Steps = int(max(steps, 1) * f)
 	}
 
 	// Expected values (METHODS.md 10.1, 11.2 step 3).
@@ -269,6 +342,10 @@ func Resolve(c *Case) (*Lattice, error) {
 	l.WallCFL = c.wallSpeed() * l.Dt / l.Dx
 	if l.Omega > 0 {
 		l.StokesCells = math.Sqrt(2*nu/l.Omega) / l.Dx
+	}
+	var err error
+	if l.layout, err = c.newLayout(l); err != nil {
+		return nil, fmt.Errorf("resolve case: %w", err)
 	}
 	l.Warnings = c.warnings(l)
 	return l, nil
@@ -385,8 +462,12 @@ func (l *Lattice) CirculationSI(gL float64) float64 { return gL * l.Dx * l.Dx / 
 // StreamfunctionSI converts a lattice Stokes streamfunction to m^3/s.
 func (l *Lattice) StreamfunctionSI(psiL float64) float64 { return psiL * l.Dx * l.Dx * l.Dx / l.Dt }
 
-// CellUpdates is the total work of the run: Steps x Nz x Nr node updates.
+// CellUpdates is the total work of the run: Steps x Nz x Nr node updates,
+// or on refined levels the levels' node updates (Layout.NodeUpdates).
 func (l *Lattice) CellUpdates() float64 {
+	if l.Levels > 1 {
+		return l.layout.NodeUpdates(l.layout.Steps)
+	}
 	return float64(l.Steps) * float64(l.Nz) * float64(l.Nr)
 }
 

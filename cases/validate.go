@@ -408,6 +408,9 @@ func (c *Case) validateGrid(v *validator) {
 			"give tau between 0.51 and 1, or leave it out to let the time step be chosen")
 	}
 
+	before := len(v.ps)
+	c.validateLevels(v)
+
 	grid, ok := c.grid()
 	if !ok {
 		return
@@ -415,6 +418,10 @@ func (c *Case) validateGrid(v *validator) {
 	key, value := "grid.cell_size", any(g.CellSize)
 	if spheres {
 		key, value = "grid.cells_per_radius", any(g.CellsPerRadius)
+	}
+	if grid.levels > 1 {
+		c.validateLevelGrid(v, grid, key, value, len(v.ps) == before)
+		return
 	}
 	if grid.nr < 3 || grid.nz < 1 {
 		v.add(key, value, fmt.Sprintf("the grid has only %g x %g cells (z x r)", grid.nz, grid.nr),
@@ -428,6 +435,34 @@ func (c *Case) validateGrid(v *validator) {
 			fmt.Sprintf("the %.0f x %.0f grid needs about %s, more than the limit of %s (%s)",
 				grid.nz, grid.nr, formatBytes(need), formatBytes(float64(limit)), source),
 			"use fewer cells (coarser grid) or a smaller container")
+	}
+}
+
+// validateLevelGrid checks the grid of a refined lattice: level 0 large
+// enough, and the levels' memory (laid out only when the case has no
+// problem so far, clean, since the layout needs valid spheres, arms and
+// margins). key and value are the resolution's key.
+func (c *Case) validateLevelGrid(v *validator, grid gridSpec, key string, value any, clean bool) {
+	if grid.nr0 < 3 || grid.nz0 < 1 {
+		v.add("grid.levels", grid.levels,
+			fmt.Sprintf("level 0 has only %g x %g cells (z x r) of %.4g m, 2^%d times the finest", grid.nz0, grid.nr0, grid.dx*refinement(grid.levels), grid.levels-1),
+			fmt.Sprintf("use fewer levels, or raise %s: level 0 needs at least 3 cells across the container radius", key))
+		return
+	}
+	single := c.Solver.Precision == PrecisionSingle
+	limit, source := MemoryLimit()
+	need := memoryBytes(grid.nz0, grid.nr0, single)
+	if need <= float64(limit) && clean {
+		l := &Lattice{Dx: grid.dx, Nz: int(grid.nz), Nr: int(grid.nr), Levels: grid.levels}
+		l.Length, l.Radius = float64(l.Nz)*l.Dx, float64(l.Nr)*l.Dx
+		_, levels, _, _ := c.layoutGeometry(l)
+		need = layoutMemory(levels, single)
+	}
+	if need > float64(limit) {
+		v.add(key, value,
+			fmt.Sprintf("the %d levels need about %s, more than the limit of %s (%s)",
+				grid.levels, formatBytes(need), formatBytes(float64(limit)), source),
+			"use fewer cells (coarser grid), more levels, smaller margins (grid.fine_margin, grid.level_margin) or a smaller container")
 	}
 }
 

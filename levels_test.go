@@ -1,0 +1,113 @@
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"axiswim/cases"
+)
+
+// demoOnLevels writes the embedded demo with the grid lines given added to
+// [grid] into dir and returns its path.
+func demoOnLevels(t *testing.T, dir string, grid string) string {
+	t.Helper()
+	src, err := cases.Get("demo")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := strings.Replace(string(src), "cells_per_radius = 12", "cells_per_radius = 12\n"+grid, 1)
+	path := filepath.Join(dir, "demo-levels.toml")
+	if err := os.WriteFile(path, []byte(s), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return path
+}
+
+// TestCheckLevels: check of the demo on 3 levels prints the container's
+// rounding, the levels with their blocks and relaxation times, the fine
+// region, the cost against the uniform lattice of the finest spacing and
+// a run time estimate. The numbers are those of the hand calculation of
+// cases.TestLayoutDemo3: level 0 has 92 x 23 cells of 6/23 mm (the
+// container exactly), level 1 is the block {24, 0, 43, 13} of it (86 x 26
+// cells), level 2 {4, 0, 77, 22} of level 1 (154 x 44); the finest tau+
+// 0.55113 halves its excess over 1/2 per level, 0.52557 and 0.51278; the
+// node updates per step of level 0, 33692, are 0.249 of the uniform
+// lattice's 135424.
+func TestCheckLevels(t *testing.T) {
+	path := demoOnLevels(t, t.TempDir(), "levels = 3")
+	code, out, e := cli(t, "check", "-quiet", path)
+	if code != exitOK {
+		t.Fatalf("check: exit %d\n%s%s", code, out, e)
+	}
+	for _, want := range []string{
+		"lattice (3 levels refined by 2, level 0 the coarsest",
+		"container       rounded to whole cells of level 0, 92 x 23 of 0.00026087 m: 0.024 m long (container.length 0.024 m, +0.000%), 0.006 m radius (exact)",
+		"(12.27 cells per radius of the smallest sphere; the uniform lattice of this spacing would be 368 x 92 cells)",
+		"steps/period    4008 (1002 of level 0",
+		"the whole container",
+		"86 x 26       2236  z0 24 r0 0, 43 x 13",
+		"154 x 44       6776  z0 4 r0 0, 77 x 22",
+		"0       0.51278",
+		"1       0.52557",
+		"2       0.55113",
+		"binding rule",
+		"fine region (level 2): z -0.0051008 .. 0.0047008 m, r up to 0.0028 m: one region around all the spheres",
+		"node updates    3.37e+04 per step of level 0",
+		"0.249 times the uniform lattice of the finest spacing (368 x 92 cells",
+		"memory          ",
+		"run time        about ",
+		"an estimate: the levels' fluid step without the bodies",
+		"interface transfers",
+		"kernel          ",
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("check output lacks %q:\n%s", want, out)
+		}
+	}
+	if strings.Contains(out, "\nwarnings:") {
+		t.Errorf("warnings for the demo on 3 levels:\n%s", out)
+	}
+}
+
+// TestRunRefusesLevels: run, sweep and onset refuse a case on more than
+// one level (the coupled run is not wired yet), naming the key and the
+// fix, before they make a directory.
+func TestRunRefusesLevels(t *testing.T) {
+	dir := t.TempDir()
+	path := demoOnLevels(t, dir, "levels = 2")
+	out := filepath.Join(dir, "out")
+	const why = "grid.levels = 2: run: the coupled run on refined levels is not wired yet"
+	code, _, e := cli(t, "run", "-quiet", "-out", out, path)
+	if code == exitOK || !strings.Contains(e, why) || !strings.Contains(e, "fix: set grid.levels = 1") {
+		t.Errorf("run on levels: exit %d, %s", code, e)
+	}
+	if _, err := os.Stat(out); err == nil {
+		t.Errorf("run on levels made %s", out)
+	}
+
+	base, err := os.ReadFile("testdata/sweep-swimmer.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	os.WriteFile(filepath.Join(dir, "base.toml"), base, 0o644)
+	sweep := filepath.Join(dir, "levels-sweep.toml")
+	os.WriteFile(sweep, []byte("base = \"base.toml\"\n[[vary]]\nkey = \"grid.levels\"\nvalues = [1, 2]\n"), 0o644)
+	for _, args := range [][]string{
+		{"sweep", "-quiet", "-out", out, sweep},
+		{"sweep", "-plan", "-out", out, sweep},
+	} {
+		code, _, e := cli(t, args...)
+		if code == exitOK || !strings.Contains(e, "grid.levels = 2: sweep levels-sweep, point 2: the coupled run on refined levels is not wired yet") {
+			t.Errorf("%s: exit %d, %s", strings.Join(args, " "), code, e)
+		}
+		if _, err := os.Stat(out); err == nil {
+			t.Errorf("%s made %s", strings.Join(args, " "), out)
+		}
+	}
+	code, _, e = cli(t, "onset", "-quiet", "-out", out, path)
+	if code == exitOK || !strings.Contains(e, "grid.levels = 2: onset: the coupled run on refined levels is not wired yet") {
+		t.Errorf("onset on levels: exit %d, %s", code, e)
+	}
+}
