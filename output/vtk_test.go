@@ -524,25 +524,7 @@ import vtk
 messages = vtk.vtkStringOutputWindow()
 vtk.vtkOutputWindow.SetInstance(messages)
 
-def dataset(d):
-    if d is None or not d.IsA("vtkImageData"):
-        return {"class": d.GetClassName() if d is not None else ""}
-    pd = d.GetPointData()
-    arrays = []
-    for i in range(pd.GetNumberOfArrays()):
-        a = pd.GetArray(i)
-        n, c = a.GetNumberOfTuples(), a.GetNumberOfComponents()
-        arrays.append({"name": a.GetName(), "type": a.GetDataTypeAsString(),
-                       "components": c, "tuples": n,
-                       "values": [a.GetComponent(t, k) for t in range(n) for k in range(c)]})
-    s, v = pd.GetScalars(), pd.GetVectors()
-    return {"class": d.GetClassName(), "dimensions": list(d.GetDimensions()),
-            "extent": list(d.GetExtent()), "origin": list(d.GetOrigin()),
-            "spacing": list(d.GetSpacing()),
-            "points": [list(d.GetPoint(p)) for p in range(d.GetNumberOfPoints())],
-            "scalars": s.GetName() if s else "", "vectors": v.GetName() if v else "",
-            "arrays": arrays}
-
+` + vtkDatasetFunc + `
 def image(path):
     r = vtk.vtkXMLImageDataReader()
     r.SetFileName(path)
@@ -788,3 +770,26 @@ func TestVTKReader(t *testing.T) {
 		}
 	})
 }
+
+// vtkDatasetFunc is the Python function of the VTK reader scripts that
+// turns a data set into the JSON of vtkDataset.
+const vtkDatasetFunc = `
+def dataset(d):
+    if d is None or not d.IsA("vtkImageData"):
+        return {"class": d.GetClassName() if d is not None else ""}
+    pd = d.GetPointData()
+    arrays = []
+    for i in range(pd.GetNumberOfArrays()):
+        a = pd.GetArray(i)
+        n, c = a.GetNumberOfTuples(), a.GetNumberOfComponents()
+        arrays.append({"name": a.GetName(), "type": a.GetDataTypeAsString(),
+                       "components": c, "tuples": n,
+                       "values": [a.GetComponent(t, k) for t in range(n) for k in range(c)]})
+    s, v = pd.GetScalars(), pd.GetVectors()
+    return {"class": d.GetClassName(), "dimensions": list(d.GetDimensions()),
+            "extent": list(d.GetExtent()), "origin": list(d.GetOrigin()),
+            "spacing": list(d.GetSpacing()),
+            "points": [list(d.GetPoint(p)) for p in range(d.GetNumberOfPoints())],
+            "scalars": s.GetName() if s else "", "vectors": v.GetName() if v else "",
+            "arrays": arrays}
+`
