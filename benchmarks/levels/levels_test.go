@@ -6,8 +6,6 @@ import (
 	"strings"
 	"testing"
 	"time"
-
-	"axiswim/lbm"
 )
 
 // defaultParams are the layout's defaults (the flags').
@@ -130,7 +128,7 @@ func TestMeasure(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, err := measure(lo, 1, 1, 20*time.Millisecond, false, false)
+	r, err := measure(lo, 1, 60*time.Millisecond, 10*time.Millisecond, true, false)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -139,8 +137,8 @@ func TestMeasure(t *testing.T) {
 		t.Errorf("measurement: %+v", r)
 	}
 	for l := range lo.cfgs {
-		if m := r.levelMLUPS(lo, l); !ok(m) || r.ref.level[l].steps != int64(r.ref.refSteps)<<l {
-			t.Errorf("level %d: %g MLUPS over %d steps", l, m, r.ref.level[l].steps)
+		if m := r.levelMLUPS(lo, l); !ok(m) || r.sum.level[l].steps != int64(r.sum.refSteps)<<l || !ok(r.alone[l]) || !ok(r.aloneOf[l]) {
+			t.Errorf("level %d: %g MLUPS over %d steps, alone %v", l, m, r.sum.level[l].steps, r.alone)
 		}
 	}
 	var sb strings.Builder
@@ -151,5 +149,4 @@ func TestMeasure(t *testing.T) {
 			t.Errorf("tables lack %q:\n%s", want, sb.String())
 		}
 	}
-	_ = lbm.Q
 }

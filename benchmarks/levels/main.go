@@ -25,7 +25,7 @@
 //
 // Usage:
 //
-//	go run ./benchmarks/levels [-excursion 2] [-margin 2] [-coarse-margin 4] [-threads 1,2] [-seconds 6] [-rounds 5]
+//	go run ./benchmarks/levels [-excursion 2] [-margin 2] [-coarse-margin 4] [-threads 1,2] [-seconds 20] [-batch 40ms]
 //
 // The same step as a Go benchmark:
 //
@@ -53,8 +53,8 @@ func main() {
 	margin := fs.Float64("margin", 2, "the finest level's margin around the spheres and their excursion, in small-sphere radii")
 	coarse := fs.Int("coarse-margin", 4, "each coarser level's margin around the next finer one, in its own cells (at least 2)")
 	threadsFlag := fs.String("threads", "", "goroutine counts per lattice, comma-separated (default 1 and all cores)")
-	seconds := fs.Float64("seconds", 6, "seconds of timing per layout and goroutine count, both lattices together")
-	rounds := fs.Int("rounds", 5, "alternating batches of each lattice (the fastest of each is kept)")
+	seconds := fs.Float64("seconds", 20, "seconds of timing per layout and goroutine count, both lattices together")
+	batch := fs.Duration("batch", 40*time.Millisecond, "length of each batch; the two lattices alternate batch by batch")
 	alone := fs.Bool("alone", true, "also time each level's size as a lattice of its own")
 	fine := fs.Bool("fine", true, "also time the uniform lattice of the finest spacing (2880 x 720, 300 MiB)")
 	fs.Usage = func() {
@@ -78,11 +78,11 @@ func main() {
 		fmt.Fprintln(os.Stderr, "levels: -threads:", err)
 		os.Exit(2)
 	}
-	if *seconds <= 0 || *rounds < 1 {
-		fmt.Fprintln(os.Stderr, "levels: -seconds and -rounds must be positive")
+	if *seconds <= 0 || *batch <= 0 {
+		fmt.Fprintln(os.Stderr, "levels: -seconds and -batch must be positive")
 		os.Exit(2)
 	}
-	cfg := runConfig{threads: threads, dur: time.Duration(*seconds * float64(time.Second)), rounds: *rounds,
+	cfg := runConfig{threads: threads, dur: time.Duration(*seconds * float64(time.Second)), batch: *batch,
 		alone: *alone, fine: *fine}
 	for _, e := range excursions {
 		cfg.layouts = append(cfg.layouts, params{excursion: e, fineMargin: *margin, coarseMargin: *coarse})
@@ -96,8 +96,7 @@ func main() {
 type runConfig struct {
 	layouts     []params
 	threads     []int
-	dur         time.Duration
-	rounds      int
+	dur, batch  time.Duration
 	alone, fine bool
 }
 
@@ -129,8 +128,8 @@ func run(w io.Writer, cfg runConfig) error {
 		return err
 	}
 	fmt.Fprintf(w, "Kernel: %s, %s\n", def.Describe(), lbm.KernelOrigin())
-	fmt.Fprintf(w, "Timed:  %d alternating batches of each lattice in about %v per goroutine count, the fastest of each kept; %d warm-up steps\n\n",
-		cfg.rounds, cfg.dur, warmUp)
+	fmt.Fprintf(w, "Timed:  the uniform demo and the refined lattice in alternating batches of about %v, %v per goroutine count, summed; %d warm-up steps\n\n",
+		cfg.batch, cfg.dur, warmUp)
 	for _, p := range cfg.layouts {
 		lo, err := newLayout(p)
 		if err != nil {
@@ -139,7 +138,7 @@ func run(w io.Writer, cfg runConfig) error {
 		printLayout(w, lo)
 		var res []result
 		for _, n := range cfg.threads {
-			r, err := measure(lo, n, cfg.rounds, cfg.dur, cfg.alone, cfg.fine)
+			r, err := measure(lo, n, cfg.dur, cfg.batch, cfg.alone, cfg.fine)
 			if err != nil {
 				return fmt.Errorf("excursion %g mm, %d goroutines: %w", p.excursion*1e3, n, err)
 			}
@@ -219,42 +218,44 @@ func sphereList(lo *layout, f func(r, z float64) float64) string {
 func printResults(w io.Writer, lo *layout, res []result) {
 	d := lo.demoUpdates()
 	up := lo.updatesPerPeriod() / d
-	fmt.Fprintln(w, "| goroutines | uniform demo per period | refined per period | wall ratio (<= 15) | node updates ratio (<= 10) | transfers (<= 20% of a step) | kernels | other | uniform finest spacing per period (estimate) |")
-	fmt.Fprintln(w, "|---:|---:|---:|---:|---:|---:|---:|---:|---:|")
+	fmt.Fprintln(w, "| goroutines | rounds | uniform demo per period | refined per period | wall ratio (<= 15) | rounds' ratio: quartiles | node updates ratio (<= 10) | transfers (<= 20% of a step) | kernels | other | uniform finest spacing per period (estimate) |")
+	fmt.Fprintln(w, "|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|")
 	for _, r := range res {
 		ratio := r.refPeriod(lo).Seconds() / r.uniPeriod(lo).Seconds()
+		q1, q2, q3 := r.quartiles()
 		fineEst := "-"
 		if r.fine > 0 {
 			s := lo.fineUpdates() / (r.fine * 1e6)
 			fineEst = fmt.Sprintf("%.0f s (%.0fx; kernel %.1f MLUPS)", s, s/r.uniPeriod(lo).Seconds(), r.fine)
 		}
-		fmt.Fprintf(w, "| %d | %.3f s | %.2f s | %.2fx %s | %.2fx %s | %.1f%% %s | %.1f%% | %.1f%% | %s |\n",
-			r.threads, r.uniPeriod(lo).Seconds(), r.refPeriod(lo).Seconds(), ratio, verdict(ratio <= maxWall),
-			up, verdict(up <= maxUpdates), 100*r.transferShare(), verdict(r.transferShare() <= maxTransfer),
+		fmt.Fprintf(w, "| %d | %d | %.3f s | %.2f s | %.2fx %s | %.1f, %.1f, %.1f | %.2fx %s | %.1f%% %s | %.1f%% | %.1f%% | %s |\n",
+			r.threads, r.rounds, r.uniPeriod(lo).Seconds(), r.refPeriod(lo).Seconds(), ratio, verdict(ratio <= maxWall),
+			q1, q2, q3, up, verdict(up <= maxUpdates), 100*r.transferShare(), verdict(r.transferShare() <= maxTransfer),
 			100*r.kernelShare(), 100*(1-r.kernelShare()-r.transferShare()), fineEst)
 	}
 	fmt.Fprintln(w)
-	fmt.Fprintln(w, "| goroutines | level | cells | steps timed | kernel MLUPS | of the uniform demo's (>= 0.8) | alone MLUPS | of alone |")
+	fmt.Fprintln(w, "| goroutines | level | cells | steps timed | kernel MLUPS | of the uniform demo's (>= 0.8) | alone MLUPS | alone, of the uniform demo's |")
 	fmt.Fprintln(w, "|---:|---:|---:|---:|---:|---:|---:|---:|")
 	for _, r := range res {
 		um := r.uniMLUPS(lo)
-		fmt.Fprintf(w, "| %d | uniform demo | %d | %d | %.1f | - | - | - |\n", r.threads, lo.demo.Nz*lo.demo.Nr, r.uni.uniSteps, um)
+		fmt.Fprintf(w, "| %d | uniform demo | %d | %d | %.1f | - | - | - |\n", r.threads, lo.demo.Nz*lo.demo.Nr, r.sum.uniSteps, um)
 		for l := range lo.cfgs {
 			m := r.levelMLUPS(lo, l)
 			al, of := "-", "-"
 			if len(r.alone) > l {
-				al, of = fmt.Sprintf("%.1f", r.alone[l]), fmt.Sprintf("%.2f", m/r.alone[l])
+				al, of = fmt.Sprintf("%.1f", r.alone[l]), fmt.Sprintf("%.2f", r.aloneOf[l])
 			}
 			fmt.Fprintf(w, "| %d | %d | %d | %d | %.1f | %.2f %s | %s | %s |\n",
-				r.threads, l, lo.cells(l), r.ref.level[l].steps, m, m/um, verdict(m/um >= minKernel), al, of)
+				r.threads, l, lo.cells(l), r.sum.level[l].steps, m, m/um, verdict(m/um >= minKernel), al, of)
 		}
 	}
 	fmt.Fprintln(w)
-	fmt.Fprintf(w, "Per period: a batch's wall time per step times %d steps (level 0's and the demo's steps per period).\n", lo.demo.StepsPerPeriod)
-	fmt.Fprintf(w, "Transfers: Levels.TransferTime (save, ghost filling, restriction) over the batch's wall time; kernels: the\n")
-	fmt.Fprintf(w, "levels' Solver.KernelTime; other: the rest (halo, force, the pools' hand-offs). Kernel MLUPS: a level's cells x steps\n")
-	fmt.Fprintf(w, "over its KernelTime; alone: a uniform lattice of the level's size and tau (closed ends), on its own.\n")
-	fmt.Fprintf(w, "Uniform finest spacing: %d x %d x %d steps per period at the rate its kernel measured here.\n\n", lo.nzF, lo.nrF, lo.stepsFine)
+	fmt.Fprintf(w, "Per period: the sums' wall time per step times %d steps (level 0's and the demo's steps per period). Wall ratio:\n", lo.demo.StepsPerPeriod)
+	fmt.Fprintf(w, "of the sums; rounds' ratio: the lower quartile, median and upper quartile of the ratio in each round (the machine's noise).\n")
+	fmt.Fprintf(w, "Transfers: Levels.TransferTime (save, ghost filling, restriction) over the refined wall time; kernels: the levels'\n")
+	fmt.Fprintf(w, "Solver.KernelTime; other: the rest (halo, force, the pools' hand-offs). Kernel MLUPS: a level's cells x steps over its\n")
+	fmt.Fprintf(w, "KernelTime; alone: a uniform lattice of the level's size and tau (closed ends), timed in batches alternating with the\n")
+	fmt.Fprintf(w, "uniform demo's. Uniform finest spacing: %d x %d x %d steps per period at the rate its kernel measured here.\n\n", lo.nzF, lo.nrF, lo.stepsFine)
 }
 
 // parseThreads reads a comma-separated list of goroutine counts; "" gives
