@@ -570,19 +570,18 @@ func (cp *coupling) save() {
 // saveRing copies the ring's populations from the parent's lattice a into
 // prev (a mirrored sample takes the mirror image's populations).
 func saveRing[T real](cp *coupling, a *[Q][]T) {
-	for m, s := range cp.ring {
-		perm := &identity
-		if s.mir {
-			perm = &Mirror
-		}
-		for i := 0; i < Q; i++ {
-			cp.prev[i][m] = float64(a[perm[i]][s.n])
+	for i := 0; i < Q; i++ {
+		own, img := a[i], a[Mirror[i]]
+		prev := cp.prev[i][:len(cp.ring)]
+		for m, s := range cp.ring {
+			if s.mir {
+				prev[m] = float64(img[s.n])
+			} else {
+				prev[m] = float64(own[s.n])
+			}
 		}
 	}
 }
-
-// identity is the permutation of the populations that is not Mirror.
-var identity = [Q]int{0, 1, 2, 3, 4, 5, 6, 7, 8}
 
 // fillGhosts writes the child's ghost cells at the fraction theta of the
 // parent's step (0: its start, from the saved ring; 1/2: halfway, the mean
@@ -622,14 +621,16 @@ func (cp *coupling) lerpPart(w, workers int) {
 
 func lerpRing[T real](cp *coupling, a *[Q][]T, lo, hi int) {
 	th := cp.theta
-	for m := lo; m < hi; m++ {
-		s := cp.ring[m]
-		perm := &identity
-		if s.mir {
-			perm = &Mirror
-		}
-		for i := 0; i < Q; i++ {
-			cp.now[i][m] = (1-th)*cp.prev[i][m] + th*float64(a[perm[i]][s.n])
+	ring := cp.ring[lo:hi]
+	for i := 0; i < Q; i++ {
+		own, img := a[i], a[Mirror[i]] // a mirrored sample takes its image's population
+		prev, now := cp.prev[i][lo:hi], cp.now[i][lo:hi]
+		for m, s := range ring {
+			f := own[s.n]
+			if s.mir {
+				f = img[s.n]
+			}
+			now[m] = (1-th)*prev[m] + th*float64(f)
 		}
 	}
 }
