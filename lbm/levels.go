@@ -45,9 +45,10 @@ import (
 // scheme conserves neither mass nor momentum exactly across an interface
 // (the interpolation does not); Levels.Mass reports the drift.
 //
-// A Levels step is one step of level 0: 2^l steps of level l. Every
-// transfer is serial and in a fixed order, so results do not depend on the
-// number of goroutines.
+// A Levels step is one step of level 0: 2^l steps of level l. The
+// transfers run on the child level's workers, split by ghost, ring sample
+// and restricted cell, each computed from its own stencil alone and in a
+// fixed order, so results do not depend on the number of goroutines.
 type Levels struct {
 	solvers []*Solver
 	blocks  []Block
@@ -350,6 +351,15 @@ type coupling struct {
 	// endCover: a restricted cell lies in the parent's first or last
 	// column, which the parent's end ghosts copy
 	endCover bool
+
+	// The transfers' state for their parallel parts: the ring at the
+	// fraction theta of the parent's step (now) and the force there
+	// (gNow), and the parts as functions made once (Solver.Parallel).
+	theta                       float64
+	now                         [Q][]float64
+	gNow                        [2]float64
+	lerpFn, ghostFn, restrictFn func(w, workers int)
+	down, up                    crossing // coarse to fine, fine to coarse
 }
 
 // sample is a parent cell read for interpolation: its storage index and
@@ -399,10 +409,14 @@ func newCoupling(p, c *Solver, b Block) (*coupling, error) {
 	cp.aP = (tc[0] - 1) / (2 * (tp[0] - 1))
 	cp.aM = (tc[1] - 1) / (2 * (tp[1] - 1))
 	cp.bP, cp.bM = 1/cp.aP, 1/cp.aM
+	cp.down = newCrossing(p, -0.25, cp.aP, cp.aM)
+	cp.up = newCrossing(c, 0.5, cp.bP, cp.bM)
 	cp.build()
 	for i := range cp.prev {
 		cp.prev[i] = make([]float64, len(cp.ring))
+		cp.now[i] = make([]float64, len(cp.ring))
 	}
+	cp.lerpFn, cp.ghostFn, cp.restrictFn = cp.lerpPart, cp.ghostPart, cp.restrictPart
 	return cp, nil
 }
 
@@ -565,53 +579,47 @@ func stencil4(m, n int, periodic, axis bool) (cell [4]int, w [4]float64, mir [4]
 	return cell, w, mir
 }
 
-// read returns population i of ring sample s of the parent's current
-// lattice.
-func (cp *coupling) read(i int, s sample) float64 {
-	if s.mir {
-		return cp.parent.pop(Mirror[i], s.n)
-	}
-	return cp.parent.pop(i, s.n)
-}
-
 // save keeps the ring's populations before the parent steps, and the
 // external force of the collision that made them.
 func (cp *coupling) save() {
 	cp.prevG = [2]float64{cp.parent.gz, cp.parent.gr}
-	for m, s := range cp.ring {
-		for i := 0; i < Q; i++ {
-			cp.prev[i][m] = cp.read(i, s)
+	if cp.parent.single {
+		saveRing(cp, &cp.parent.a32)
+	} else {
+		saveRing(cp, &cp.parent.a)
+	}
+}
+
+// saveRing copies the ring's populations from the parent's lattice a into
+// prev (a mirrored sample takes the mirror image's populations).
+func saveRing[T real](cp *coupling, a *[Q][]T) {
+	for i := 0; i < Q; i++ {
+		own, img := a[i], a[Mirror[i]]
+		prev := cp.prev[i][:len(cp.ring)]
+		for m, s := range cp.ring {
+			if s.mir {
+				prev[m] = float64(img[s.n])
+			} else {
+				prev[m] = float64(own[s.n])
+			}
 		}
 	}
 }
 
 // fillGhosts writes the child's ghost cells at the fraction theta of the
 // parent's step (0: its start, from the saved ring; 1/2: halfway, the mean
-// of the saved ring and the parent's new populations; 1: its end).
+// of the saved ring and the parent's new populations; 1: its end). The
+// ring's values at theta, then the ghosts, are computed in parallel on
+// the child's workers: each value and each ghost depends on nothing but
+// the ring and the parent, so the split does not change a bit.
 func (cp *coupling) fillGhosts(theta float64) {
 	c, p := cp.child, cp.parent
-	gz := (1-theta)*cp.prevG[0] + theta*p.gz
-	gr := (1-theta)*cp.prevG[1] + theta*p.gr
-	var v [Q]float64
-	for g := range cp.gh {
-		gh := &cp.gh[g]
-		for i := 0; i < Q; i++ {
-			var sum float64
-			for x, m := range gh.src {
-				f := cp.prev[i][m]
-				if theta != 0 {
-					f = (1-theta)*f + theta*cp.read(i, cp.ring[m])
-				}
-				sum += gh.w[x] * f
-			}
-			v[i] = sum
-		}
-		dz, dr := forceAt(cp.parent, gz, gr, &v, gh.r)
-		rescale(&v, cp.aP, cp.aM, -0.25*dz, -0.25*dr)
-		for i := 0; i < Q; i++ {
-			c.setPop(i, gh.dst, v[i])
-		}
+	cp.theta = theta
+	cp.gNow = [2]float64{(1-theta)*cp.prevG[0] + theta*p.gz, (1-theta)*cp.prevG[1] + theta*p.gr}
+	if theta != 0 {
+		c.Parallel(cp.lerpFn)
 	}
+	c.Parallel(cp.ghostFn)
 	for _, k := range cp.axis {
 		src, dst := c.idx(k, 0), c.idx(k, -1)
 		for i := 0; i < Q; i++ {
@@ -620,43 +628,193 @@ func (cp *coupling) fillGhosts(theta float64) {
 	}
 }
 
-// restrict writes every parent cell under the child from its four child
-// cells; a cell with a solid child cell is set to rest.
-func (cp *coupling) restrict() {
-	p, c := cp.parent, cp.child
-	var v [Q]float64
-	for x := range cp.cov {
-		cc := &cp.cov[x]
-		solid := false
-		for _, n := range cc.src {
-			solid = solid || c.solid[n]
+// share returns worker w's part [lo, hi) of n items split among workers.
+func share(n, w, workers int) (lo, hi int) { return n * w / workers, n * (w + 1) / workers }
+
+// lerpPart is worker w's part of the ring at cp.theta: now = (1 - theta)
+// prev + theta times the parent's current populations.
+func (cp *coupling) lerpPart(w, workers int) {
+	lo, hi := share(len(cp.ring), w, workers)
+	if cp.parent.single {
+		lerpRing(cp, &cp.parent.a32, lo, hi)
+	} else {
+		lerpRing(cp, &cp.parent.a, lo, hi)
+	}
+}
+
+func lerpRing[T real](cp *coupling, a *[Q][]T, lo, hi int) {
+	th := cp.theta
+	ring := cp.ring[lo:hi]
+	for i := 0; i < Q; i++ {
+		own, img := a[i], a[Mirror[i]] // a mirrored sample takes its image's population
+		prev, now := cp.prev[i][lo:hi], cp.now[i][lo:hi]
+		for m, s := range ring {
+			f := own[s.n]
+			if s.mir {
+				f = img[s.n]
+			}
+			now[m] = (1-th)*prev[m] + th*float64(f)
 		}
-		if solid {
+	}
+}
+
+// ghostPart is worker w's part of the ghosts.
+func (cp *coupling) ghostPart(w, workers int) {
+	lo, hi := share(len(cp.gh), w, workers)
+	if cp.child.single {
+		fillGhostRange(cp, &cp.child.a32, lo, hi)
+	} else {
+		fillGhostRange(cp, &cp.child.a, lo, hi)
+	}
+}
+
+// fillGhostRange writes ghosts lo..hi-1 into the child's lattice a: the
+// quadratic interpolation of the ring at cp.theta (prev at 0, else now),
+// its force exchanged and its non-equilibrium rescaled.
+func fillGhostRange[T real](cp *coupling, a *[Q][]T, lo, hi int) {
+	src := &cp.prev
+	if cp.theta != 0 {
+		src = &cp.now
+	}
+	down := &cp.down
+	p0, p1, p2, p3, p4, p5, p6, p7, p8 := src[0], src[1], src[2], src[3], src[4], src[5], src[6], src[7], src[8]
+	var v [Q]float64
+	for g := lo; g < hi; g++ {
+		gh := &cp.gh[g]
+		// Nine accumulators, each summed in stencil order.
+		var v0, v1, v2, v3, v4, v5, v6, v7, v8 float64
+		for x, m := range gh.src {
+			w := gh.w[x]
+			v0 += w * p0[m]
+			v1 += w * p1[m]
+			v2 += w * p2[m]
+			v3 += w * p3[m]
+			v4 += w * p4[m]
+			v5 += w * p5[m]
+			v6 += w * p6[m]
+			v7 += w * p7[m]
+			v8 += w * p8[m]
+		}
+		v = [Q]float64{v0, v1, v2, v3, v4, v5, v6, v7, v8}
+		down.apply(&v, cp.gNow[0], cp.gNow[1], gh.r)
+		for i := 0; i < Q; i++ {
+			a[i][gh.dst] = T(v[i])
+		}
+	}
+}
+
+// restrict writes every parent cell under the child from its four child
+// cells; a cell with a solid child cell is set to rest. The cells are
+// split among the child's workers; each depends on the child alone.
+func (cp *coupling) restrict() {
+	cp.child.Parallel(cp.restrictFn)
+	if cp.endCover {
+		cp.parent.haloStale = true // the end ghosts copy restricted cells
+	}
+}
+
+// restrictPart is worker w's part of the covered cells.
+func (cp *coupling) restrictPart(w, workers int) {
+	lo, hi := share(len(cp.cov), w, workers)
+	if cp.child.single {
+		restrictRange(cp, &cp.child.a32, &cp.parent.a32, lo, hi)
+	} else {
+		restrictRange(cp, &cp.child.a, &cp.parent.a, lo, hi)
+	}
+}
+
+// restrictRange writes covered cells lo..hi-1 of the parent's lattice pa
+// from the child's lattice ca: the cubic interpolation of each population
+// over the 4 x 4 child cells (summed in stencil order, as sum_y w_y f_i(y)
+// reads), the force exchanged and the non-equilibrium rescaled.
+func restrictRange[T real](cp *coupling, ca, pa *[Q][]T, lo, hi int) {
+	c := cp.child
+	solid := c.solid
+	up := &cp.up
+	a0, a1, a2, a3, a4, a5, a6, a7, a8 := ca[0], ca[1], ca[2], ca[3], ca[4], ca[5], ca[6], ca[7], ca[8]
+	var v [Q]float64
+	for x := lo; x < hi; x++ {
+		cc := &cp.cov[x]
+		sol := false
+		for _, n := range cc.src {
+			sol = sol || solid[n]
+		}
+		if sol {
 			for i := 0; i < Q; i++ {
-				p.setPop(i, cc.dst, 0)
+				pa[i][cc.dst] = 0
 			}
 			continue
 		}
-		for i := 0; i < Q; i++ {
-			var sum float64
-			for y, n := range cc.src {
-				d := i
-				if cc.mir[y] {
-					d = Mirror[i]
-				}
-				sum += cc.w[y] * c.pop(d, n)
+		// Nine accumulators, each summed in stencil order; a mirrored
+		// cell gives population i its image's, Mirror[i].
+		var v0, v1, v2, v3, v4, v5, v6, v7, v8 float64
+		for y, n := range cc.src {
+			wy := cc.w[y]
+			if cc.mir[y] { // Mirror = 0, 1, 4, 3, 2, 8, 7, 6, 5
+				v0 += wy * float64(a0[n])
+				v1 += wy * float64(a1[n])
+				v2 += wy * float64(a4[n])
+				v3 += wy * float64(a3[n])
+				v4 += wy * float64(a2[n])
+				v5 += wy * float64(a8[n])
+				v6 += wy * float64(a7[n])
+				v7 += wy * float64(a6[n])
+				v8 += wy * float64(a5[n])
+				continue
 			}
-			v[i] = sum
+			v0 += wy * float64(a0[n])
+			v1 += wy * float64(a1[n])
+			v2 += wy * float64(a2[n])
+			v3 += wy * float64(a3[n])
+			v4 += wy * float64(a4[n])
+			v5 += wy * float64(a5[n])
+			v6 += wy * float64(a6[n])
+			v7 += wy * float64(a7[n])
+			v8 += wy * float64(a8[n])
 		}
-		dz, dr := forceAt(c, c.gz, c.gr, &v, cc.r)
-		rescale(&v, cp.bP, cp.bM, 0.5*dz, 0.5*dr)
+		v = [Q]float64{v0, v1, v2, v3, v4, v5, v6, v7, v8}
+		up.apply(&v, c.gz, c.gr, cc.r)
 		for i := 0; i < Q; i++ {
-			p.setPop(i, cc.dst, v[i])
+			pa[i][cc.dst] = T(v[i])
 		}
 	}
-	if cp.endCover {
-		p.haloStale = true // the end ghosts copy restricted cells
+}
+
+// crossing is what populations crossing an interface in one direction
+// need: the lattice whose collision made them (its force law: see
+// forceAt), the share k of that force exchanged (-1/4 coarse to fine, 1/2
+// fine to coarse) and the rescaling factors of the non-equilibrium's
+// symmetric and antisymmetric parts.
+type crossing struct {
+	axi    bool
+	c, nu  float64 // forceAt's stress factor -(1 - w+/2)/(1 - w+), and nu, of that lattice
+	k      float64
+	sp, sm float64
+}
+
+func newCrossing(s *Solver, k, sp, sm float64) crossing {
+	return crossing{axi: s.cfg.Axisymmetric, c: -(1 - 0.5*s.wp) / (1 - s.wp), nu: s.nu, k: k, sp: sp, sm: sm}
+}
+
+// apply is forceAt and rescale in one, the moments of v computed once:
+// v's force at radius r under the external force (gz, gr) times k is
+// exchanged and its non-equilibrium rescaled, the same arithmetic as
+// rescale(v, sp, sm, k*fz, k*fr) with (fz, fr) = forceAt(v).
+func (x *crossing) apply(v *[Q]float64, gz, gr, r float64) {
+	drho := v[0] + v[1] + v[2] + v[3] + v[4] + v[5] + v[6] + v[7] + v[8]
+	jz := v[1] - v[3] + v[5] - v[6] - v[7] + v[8]
+	jr := v[2] - v[4] + v[5] + v[6] - v[7] - v[8]
+	rho := 1 + drho
+	uz, ur := jz/rho, jr/rho
+	fz, fr := gz, gr
+	if x.axi {
+		szr := x.c * (v[5] - v[6] + v[7] - v[8] - rho*uz*ur)
+		srr := x.c * (v[2] + v[4] + v[5] + v[6] + v[7] + v[8] - drho*Cs2 - rho*ur*ur)
+		theta := -rho * ur / r
+		fz += theta*uz + szr/r
+		fr += theta*ur + srr/r - 2*rho*x.nu*ur/(r*r)
 	}
+	rescaleMoments(v, x.sp, x.sm, x.k*fz, x.k*fr, drho, jz, jr)
 }
 
 // forceAt returns the force density that level s's collision put into the
@@ -668,7 +826,9 @@ func (cp *coupling) restrict() {
 // as F scales by 1/2 per finer level that half must be exchanged when the
 // populations cross an interface: otherwise the levels' velocities differ
 // by F/4, an error of nu/R^2 in Poiseuille flow (measured 5e-4 of u_max
-// at R = 8, and 2e-11 with the exchange in the plane channel).
+// at R = 8, and 2e-11 with the exchange in the plane channel). The
+// transfers use crossing.apply, the same arithmetic; this is its
+// reference form.
 func forceAt(s *Solver, gz, gr float64, v *[Q]float64, r float64) (fz, fr float64) {
 	fz, fr = gz, gr
 	if !s.cfg.Axisymmetric {
@@ -692,6 +852,8 @@ func forceAt(s *Solver, gz, gr float64, v *[Q]float64, r float64) (fz, fr float6
 // density and momentum and the rest, and scales the rest's symmetric part
 // by sp and its antisymmetric part by sm (Dupuis & Chopard 2003); the
 // momentum changes by (dz, dr) (see forceAt), the density not at all.
+// (The transfers call rescaleMoments through crossing.apply; this is the
+// reference form.)
 func rescale(v *[Q]float64, sp, sm, dz, dr float64) {
 	drho := v[0] + v[1] + v[2] + v[3] + v[4] + v[5] + v[6] + v[7] + v[8]
 	jz := v[1] - v[3] + v[5] - v[6] - v[7] + v[8]
@@ -712,3 +874,33 @@ func rescale(v *[Q]float64, sp, sm, dz, dr float64) {
 		v[i] = feqDeviation(i, rho, uz2, ur2) + sp*sym + sm*anti
 	}
 }
+
+// rescaleMoments is rescale given v's density deviation drho and momentum
+// (jz, jr), with feqDeviation's parts common to all i computed once (the
+// same arithmetic: TestRescaleMatches).
+func rescaleMoments(v *[Q]float64, sp, sm, dz, dr, drho, jz, jr float64) {
+	rho := 1 + drho
+	uz, ur := jz/rho, jr/rho
+	uz2, ur2 := (jz+dz)/rho, (jr+dr)/rho
+	rm1 := rho - 1
+	q1 := 1.5 * (uz*uz + ur*ur)
+	q2 := 1.5 * (uz2*uz2 + ur2*ur2)
+	var neq [Q]float64
+	for i := 0; i < Q; i++ {
+		eu := ezf[i]*uz + erf[i]*ur
+		neq[i] = v[i] - W[i]*(rm1+rho*(3*eu+4.5*eu*eu-q1))
+	}
+	for i := 0; i < Q; i++ {
+		o := Opp[i]
+		sym := 0.5 * (neq[i] + neq[o])
+		anti := 0.5 * (neq[i] - neq[o])
+		eu := ezf[i]*uz2 + erf[i]*ur2
+		v[i] = W[i]*(rm1+rho*(3*eu+4.5*eu*eu-q2)) + sp*sym + sm*anti
+	}
+}
+
+// ezf and erf are Ez and Er as float64.
+var (
+	ezf = [Q]float64{0, 1, 0, -1, 0, 1, -1, -1, 1}
+	erf = [Q]float64{0, 0, 1, 0, -1, 1, 1, -1, -1}
+)

@@ -88,8 +88,9 @@ func TestLevelsPoiseuille(t *testing.T) {
 	}
 }
 
-// TestLevelsThreads: the transfers between levels are serial and in a
-// fixed order and each level's steps are bit-for-bit independent of the
+// TestLevelsThreads: each ghost and restricted cell of the transfers
+// between levels is computed from its own stencil alone, whichever worker
+// does it, and each level's steps are bit-for-bit independent of the
 // number of goroutines, so the levels are too (the project's rule).
 func TestLevelsThreads(t *testing.T) {
 	run := func(threads int) [][Q][]float64 {
