@@ -207,11 +207,20 @@ func (h *Levels) SetForce(gz, gr float64) {
 // last Step, the time of every level's next collision: its ghost cells are
 // filled first with its parent's populations of half a parent step later
 // (extrapolated linearly from the parent's last two), which that collision
-// streams. It changes no population that a step reads (the next step
-// fills the ghosts again).
+// streams; right after MoveAll, before a Step, from the parent's last ones
+// (half a parent step behind). It changes no population that a step reads
+// (the next step fills the ghosts again).
 func (h *Levels) Fields(l int, dst *Fields) *Fields {
 	if l > 0 {
-		h.links[l-1].fillGhosts(1.5)
+		c := h.links[l-1]
+		theta := 1.5
+		if !c.prevOK {
+			// right after MoveAll the parent's populations of the step
+			// before are gone: the ghosts lag half a parent step until the
+			// next Step
+			theta = 1
+		}
+		c.fillGhosts(theta)
 	}
 	return h.solvers[l].Fields(dst)
 }
@@ -259,8 +268,8 @@ func (h *Levels) advance(l int) {
 		}
 		return
 	}
-	// Level l's collision at time t (in its parent's clock: the one its
-	// step count gives) takes its post-collision populations from t - 1 to
+	// Level l's collision at time t (in level l's steps, the time its step
+	// count gives) takes its post-collision populations from t - 1 to
 	// t. The child's two collisions fall at t and t + 1/2 (level l's
 	// steps): the first streams the child's post-collision populations of
 	// t - 1/2 and ghosts interpolated halfway through level l's step; its
@@ -341,13 +350,16 @@ type coupling struct {
 	prev [Q][]float64 // their populations at the start of the parent's step
 	// prevG: the parent's external force in the collision that made prev
 	prevG [2]float64
-	gh    []ghost     // the child's ghost cells
-	axis  []int       // child columns whose ghost below the axis mirrors row 0
-	cov   []coverCell // parent cells under the child
-	aP    float64     // coarse-to-fine factor of the symmetric non-equilibrium
-	aM    float64     // and of the antisymmetric one
-	bP    float64     // fine-to-coarse factors: 1/aP, 1/aM
-	bM    float64
+	// prevOK: prev holds the ring at the start of the parent's last step
+	// (false after MoveAll, until the next step saves it again)
+	prevOK bool
+	gh     []ghost     // the child's ghost cells
+	axis   []int       // child columns whose ghost below the axis mirrors row 0
+	cov    []coverCell // parent cells under the child
+	aP     float64     // coarse-to-fine factor of the symmetric non-equilibrium
+	aM     float64     // and of the antisymmetric one
+	bP     float64     // fine-to-coarse factors: 1/aP, 1/aM
+	bM     float64
 	// endCover: a restricted cell lies in the parent's first or last
 	// column, which the parent's end ghosts copy
 	endCover bool
@@ -583,6 +595,7 @@ func stencil4(m, n int, periodic, axis bool) (cell [4]int, w [4]float64, mir [4]
 // external force of the collision that made them.
 func (cp *coupling) save() {
 	cp.prevG = [2]float64{cp.parent.gz, cp.parent.gr}
+	cp.prevOK = true
 	if cp.parent.single {
 		saveRing(cp, &cp.parent.a32)
 	} else {

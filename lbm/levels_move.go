@@ -2,6 +2,11 @@ package lbm
 
 import "fmt"
 
+// solidReach is how far from a solid node a body's boundary links read: the
+// link's fluid node is next to it, and the interpolation reads up to two
+// cells further (SetBoundary).
+const solidReach = 3
+
 // MoveAll moves every refined level (1 and finer) by dz cells of level 0
 // along z, as one: the liquid stays where it is and the window of fine
 // cells moves over it, so a body drifting towards the edge of its fine
@@ -20,8 +25,11 @@ import "fmt"
 //
 // The move must keep level 1's sides of the same kind (touching the same
 // ends as before, at least two level-0 cells from the others), and no
-// solid node may leave a level; MoveAll checks both before it changes
-// anything.
+// solid node may come within solidReach cells of a level's open end (a
+// body's links would reach its ghosts); MoveAll checks both before it
+// changes anything. Levels.Fields right after a move, before the next
+// Step, fills the ghosts half a parent step behind (the parent's
+// populations of the step before are not kept across a move).
 func (h *Levels) MoveAll(dz int) error {
 	if dz == 0 || len(h.blocks) == 0 {
 		return nil
@@ -42,13 +50,27 @@ func (h *Levels) MoveAll(dz int) error {
 		shift := dz << l
 		for j := 0; j < s.nr; j++ {
 			for k := 0; k < s.nz; k++ {
-				if s.solid[s.idx(k, j)] && (k-shift < 0 || k-shift >= s.nz) {
-					return fmt.Errorf("lbm: move the levels by %d cells: level %d's solid node (%d, %d) would leave it", dz, l, k, j)
+				if !s.solid[s.idx(k, j)] {
+					continue
+				}
+				// keep the links off an open side's ghosts
+				lo, hi := 0, s.nz-1
+				if s.cfg.Open&SideZMin != 0 {
+					lo = solidReach
+				}
+				if s.cfg.Open&SideZMax != 0 {
+					hi = s.nz - 1 - solidReach
+				}
+				if k-shift < lo || k-shift > hi {
+					return fmt.Errorf("lbm: move the levels by %d cells: level %d's solid node (%d, %d) would come within %d cells of its edge", dz, l, k, j, solidReach)
 				}
 			}
 		}
 	}
 	h.blocks[0] = nb
+	for _, c := range h.links {
+		c.prevOK = false // the rings' saved populations no longer match their cells
+	}
 	for l := 1; l < len(h.solvers); l++ {
 		s := h.solvers[l]
 		s.shiftWindow(dz << l)

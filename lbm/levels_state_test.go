@@ -90,3 +90,28 @@ func TestLevelsRestore(t *testing.T) {
 		t.Error("a state of 2 levels restored into 3")
 	}
 }
+
+// TestLevelsRestoreFields: a fine level's fields right after a restore,
+// before any step, are bit for bit those of the levels the state was taken
+// from (the saved ring the ghosts extrapolate from is part of the state).
+func TestLevelsRestoreFields(t *testing.T) {
+	a := levelsRun(t, 1, false, 30)
+	defer a.Close()
+	b, err := NewLevels(Config{Nz: 24, Nr: 8, Tau: 0.55, Axisymmetric: true, Threads: 1},
+		[]Block{{Z0: 6, R0: 0, Nz: 8, Nr: 4}, {Z0: 2, R0: 0, Nz: 12, Nr: 4}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer b.Close()
+	if err := b.Restore(a.Snapshot()); err != nil {
+		t.Fatal(err)
+	}
+	for l := 1; l < 3; l++ {
+		fa, fb := a.Fields(l, nil), b.Fields(l, nil)
+		for n := range fa.Uz {
+			if math.Float64bits(fa.Uz[n]) != math.Float64bits(fb.Uz[n]) || math.Float64bits(fa.Rho[n]) != math.Float64bits(fb.Rho[n]) {
+				t.Fatalf("level %d node %d: u_z %v and %v after the restore", l, n, fa.Uz[n], fb.Uz[n])
+			}
+		}
+	}
+}
