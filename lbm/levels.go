@@ -809,10 +809,22 @@ func newCrossing(s *Solver, k, sp, sm float64) crossing {
 	return crossing{axi: s.cfg.Axisymmetric, c: -(1 - 0.5*s.wp) / (1 - s.wp), nu: s.nu, k: k, sp: sp, sm: sm}
 }
 
-// apply is forceAt and rescale in one, the moments of v computed once:
-// v's force at radius r under the external force (gz, gr) times k is
-// exchanged and its non-equilibrium rescaled, the same arithmetic as
-// rescale(v, sp, sm, k*fz, k*fr) with (fz, fr) = forceAt(v).
+// apply exchanges k times the force that the collision of x's lattice put
+// into the post-collision populations v at radius r (its lattice units) and
+// rescales v's non-equilibrium. The force is the external one (gz, gr) and,
+// on an axisymmetric lattice, the source terms of macro (Zhou 2008), their
+// viscous stress taken from v's non-equilibrium (the post-collision one,
+// (1 - 1/tau+) times the one macro uses). Guo forcing leaves half of it in
+// the stored momentum, j* = rho u + F/2, and as F scales by 1/2 per finer
+// level that half must be exchanged when the populations cross an
+// interface: otherwise the levels' velocities differ by F/4, an error of
+// nu/R^2 in Poiseuille flow (measured 5e-4 of u_max at R = 8, and 2e-11
+// with the exchange in the plane channel). The rescaling splits v into the
+// equilibrium of its own density and momentum and the rest, and scales the
+// rest's symmetric part by sp and its antisymmetric part by sm (Dupuis &
+// Chopard 2003); the momentum changes by the exchanged force, the density
+// not at all. The moments are computed once; forceAt and rescale in the
+// tests are the plain reference form of the same arithmetic.
 func (x *crossing) apply(v *[Q]float64, gz, gr, r float64) {
 	drho := v[0] + v[1] + v[2] + v[3] + v[4] + v[5] + v[6] + v[7] + v[8]
 	jz := v[1] - v[3] + v[5] - v[6] - v[7] + v[8]
@@ -830,67 +842,9 @@ func (x *crossing) apply(v *[Q]float64, gz, gr, r float64) {
 	rescaleMoments(v, x.sp, x.sm, x.k*fz, x.k*fr, drho, jz, jr)
 }
 
-// forceAt returns the force density that level s's collision put into the
-// post-collision populations v at radius r (s's lattice units): the
-// external force and, on an axisymmetric lattice, the source terms of
-// macro (Zhou 2008), their viscous stress taken from v's non-equilibrium
-// (the post-collision one, (1 - 1/tau+) times the one macro uses). Guo
-// forcing leaves half of it in the stored momentum, j* = rho u + F/2, and
-// as F scales by 1/2 per finer level that half must be exchanged when the
-// populations cross an interface: otherwise the levels' velocities differ
-// by F/4, an error of nu/R^2 in Poiseuille flow (measured 5e-4 of u_max
-// at R = 8, and 2e-11 with the exchange in the plane channel). The
-// transfers use crossing.apply, the same arithmetic; this is its
-// reference form.
-func forceAt(s *Solver, gz, gr float64, v *[Q]float64, r float64) (fz, fr float64) {
-	fz, fr = gz, gr
-	if !s.cfg.Axisymmetric {
-		return fz, fr
-	}
-	drho := v[0] + v[1] + v[2] + v[3] + v[4] + v[5] + v[6] + v[7] + v[8]
-	jz := v[1] - v[3] + v[5] - v[6] - v[7] + v[8]
-	jr := v[2] - v[4] + v[5] + v[6] - v[7] - v[8]
-	rho := 1 + drho
-	uz, ur := jz/rho, jr/rho
-	c := -(1 - 0.5*s.wp) / (1 - s.wp)
-	szr := c * (v[5] - v[6] + v[7] - v[8] - rho*uz*ur)
-	srr := c * (v[2] + v[4] + v[5] + v[6] + v[7] + v[8] - drho*Cs2 - rho*ur*ur)
-	theta := -rho * ur / r
-	fz += theta*uz + szr/r
-	fr += theta*ur + srr/r - 2*rho*s.nu*ur/(r*r)
-	return fz, fr
-}
-
-// rescale splits the deviations v into the equilibrium of their own
-// density and momentum and the rest, and scales the rest's symmetric part
-// by sp and its antisymmetric part by sm (Dupuis & Chopard 2003); the
-// momentum changes by (dz, dr) (see forceAt), the density not at all.
-// (The transfers call rescaleMoments through crossing.apply; this is the
-// reference form.)
-func rescale(v *[Q]float64, sp, sm, dz, dr float64) {
-	drho := v[0] + v[1] + v[2] + v[3] + v[4] + v[5] + v[6] + v[7] + v[8]
-	jz := v[1] - v[3] + v[5] - v[6] - v[7] + v[8]
-	jr := v[2] - v[4] + v[5] + v[6] - v[7] - v[8]
-	rho := 1 + drho
-	uz, ur := jz/rho, jr/rho
-	var neq [Q]float64
-	var eq [Q]float64
-	for i := 0; i < Q; i++ {
-		eq[i] = feqDeviation(i, rho, uz, ur)
-		neq[i] = v[i] - eq[i]
-	}
-	uz2, ur2 := (jz+dz)/rho, (jr+dr)/rho
-	for i := 0; i < Q; i++ {
-		o := Opp[i]
-		sym := 0.5 * (neq[i] + neq[o])
-		anti := 0.5 * (neq[i] - neq[o])
-		v[i] = feqDeviation(i, rho, uz2, ur2) + sp*sym + sm*anti
-	}
-}
-
-// rescaleMoments is rescale given v's density deviation drho and momentum
-// (jz, jr), with feqDeviation's parts common to all i computed once (the
-// same arithmetic: TestRescaleMatches).
+// rescaleMoments is apply's rescaling given v's density deviation drho and
+// momentum (jz, jr), with feqDeviation's parts common to all i computed
+// once (the same arithmetic as the tests' rescale: TestCrossingMatchesReference).
 func rescaleMoments(v *[Q]float64, sp, sm, dz, dr, drho, jz, jr float64) {
 	rho := 1 + drho
 	uz, ur := jz/rho, jr/rho

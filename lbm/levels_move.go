@@ -194,8 +194,7 @@ func (cp *coupling) fillEntering(shift int) {
 				v[i] = sum
 			}
 			r := float64(p.cfg.RowOffset) + y
-			dz, dr := forceAt(p, p.gz, p.gr, &v, r)
-			rescale(&v, cp.aP, cp.aM, -0.25*dz, -0.25*dr)
+			cp.down.apply(&v, p.gz, p.gr, r)
 			n := c.idx(k, j)
 			for i := 0; i < Q; i++ {
 				c.setPop(i, n, v[i])
