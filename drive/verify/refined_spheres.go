@@ -309,25 +309,7 @@ func wakeLevels(a, lambda, re, travel float64, n int, o Options) (cd, ls float64
 		}
 	}
 	cd = -s / float64(win) / (0.5 * U * U * math.Pi * a * a)
-	fields := h.Fields(n-1, nil)
-	rear := bs.List[0].Shape.Z - a
-	prev, prevZ := math.NaN(), 0.0
-	for k := int(math.Floor(rear - 0.5)); k >= 0; k-- {
-		z := float64(k) + 0.5
-		if fine.Solid(k, 0) {
-			continue
-		}
-		rel := fields.Uz[fields.At(k, 0)] - U
-		if math.IsNaN(prev) && rel <= 0 {
-			return cd, 0, moves, nil // attached
-		}
-		if prev > 0 && rel <= 0 {
-			zs := prevZ + (z-prevZ)*prev/(prev-rel)
-			return cd, (rear - zs) / (2 * a), moves, nil
-		}
-		prev, prevZ = rel, z
-	}
-	return cd, 0, moves, nil
+	return cd, recirculation(h.Fields(n-1, nil), fine.Solid, bs.List[0].Shape.Z-a, a, U), moves, nil
 }
 
 // checkRefinedWake: sphere-wake's drag and recirculation at Re = 50 on two

@@ -300,27 +300,34 @@ func wakeRun(a, lambda, re, travel float64, o Options) (cd, ls float64, err erro
 		}
 	}
 	cd = -s / float64(win) / (0.5 * U * U * math.Pi * a * a)
-	// Recirculation: on the row next to the axis behind the sphere the
-	// liquid moves faster than the sphere (reversed flow in its frame).
-	fields := fl.Fields(nil)
-	rear := bs.List[0].Shape.Z - a
+	return cd, recirculation(fl.Fields(nil), fl.Solid, bs.List[0].Shape.Z-a, a, U), nil
+}
+
+// recirculation returns the length of the recirculation behind a sphere
+// of radius a moving at U whose rear is at z = rear (lattice units), in
+// diameters, from the fields f of its lattice (solid reports its solid
+// nodes): on the row next to the axis behind the sphere the liquid moves
+// faster than the sphere (reversed flow in its frame) up to the
+// separation's end, found by linear interpolation; 0 if the wake is
+// attached.
+func recirculation(f *lbm.Fields, solid func(k, j int) bool, rear, a, U float64) float64 {
 	prev, prevZ := math.NaN(), 0.0
 	for k := int(math.Floor(rear - 0.5)); k >= 0; k-- {
 		z := float64(k) + 0.5
-		if fl.Solid(k, 0) {
+		if solid(k, 0) {
 			continue
 		}
-		rel := fields.Uz[fields.At(k, 0)] - U
+		rel := f.Uz[f.At(k, 0)] - U
 		if math.IsNaN(prev) && rel <= 0 {
-			return cd, 0, nil // attached
+			return 0 // attached
 		}
 		if prev > 0 && rel <= 0 {
 			zs := prevZ + (z-prevZ)*prev/(prev-rel)
-			return cd, (rear - zs) / (2 * a), nil
+			return (rear - zs) / (2 * a)
 		}
 		prev, prevZ = rel, z
 	}
-	return cd, 0, nil
+	return 0
 }
 
 // Sources of the wake rows.
