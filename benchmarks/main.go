@@ -1,6 +1,7 @@
 package main
 
 import (
+	"axiswim/benchmarks/internal/host"
 	"flag"
 	"fmt"
 	"io"
@@ -85,7 +86,7 @@ func run(w io.Writer, cfg runConfig) error {
 	start := time.Now()
 
 	fmt.Fprintf(w, "axiswim lbm kernel benchmark, %s\n\n", start.UTC().Format("2006-01-02 15:04 MST"))
-	fmt.Fprintf(w, "CPU:    %s\n", cpuModel())
+	fmt.Fprintf(w, "CPU:    %s\n", host.CPUModel())
 	fmt.Fprintf(w, "Cores:  %d (runtime.NumCPU), GOMAXPROCS %d\n", runtime.NumCPU(), runtime.GOMAXPROCS(0))
 	fmt.Fprintf(w, "Go:     %s %s/%s\n", runtime.Version(), runtime.GOOS, runtime.GOARCH)
 	if llc > 0 {

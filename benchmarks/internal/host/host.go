@@ -1,4 +1,6 @@
-package main
+// Package host describes the machine a benchmark runs on, for the headers
+// of the benchmark programs' tables.
+package host
 
 import (
 	"bufio"
@@ -7,10 +9,9 @@ import (
 	"strings"
 )
 
-// cpuModel returns the "model name" of the first processor in
-// /proc/cpuinfo, or the architecture if there is none (as the kernel
-// benchmark's header does).
-func cpuModel() string {
+// CPUModel returns the "model name" of the first processor in
+// /proc/cpuinfo, or the architecture if there is none.
+func CPUModel() string {
 	f, err := os.Open("/proc/cpuinfo")
 	if err != nil {
 		return runtime.GOARCH
