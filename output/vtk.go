@@ -245,18 +245,26 @@ func WritePVD(path string, entries []CollectionEntry) error {
 		if math.IsNaN(e.Time) || math.IsInf(e.Time, 0) {
 			return fmt.Errorf("collection %s: entry %d (%s) has time %v: want a finite time", path, i+1, e.File, e.Time)
 		}
-		if err := checkName(e.File); err != nil {
-			return fmt.Errorf("collection %s: entry %d: file name: %w", path, i+1, err)
-		}
-		if filepath.IsAbs(e.File) || strings.HasPrefix(e.File, "/") {
-			return fmt.Errorf("collection %s: entry %d: file %s is absolute; "+
-				"name it relative to the collection's directory so that the run directory can move", path, i+1, e.File)
+		if err := checkListedFile(e.File, "collection"); err != nil {
+			return fmt.Errorf("collection %s: entry %d: %w", path, i+1, err)
 		}
 		fmt.Fprintf(&b, "    <DataSet timestep=\"%s\" group=\"\" part=\"0\" file=\"%s\"/>\n",
 			formatFloat(e.Time), escapeAttr(filepath.ToSlash(e.File)))
 	}
 	b.WriteString("  </Collection>\n</VTKFile>\n")
 	return WriteFileAtomic(path, b.Bytes())
+}
+
+// checkListedFile accepts the name of a file that a collection or
+// multiblock file (kind) lists: XML-safe and relative to its directory.
+func checkListedFile(file, kind string) error {
+	if err := checkName(file); err != nil {
+		return fmt.Errorf("file name: %w", err)
+	}
+	if filepath.IsAbs(file) || strings.HasPrefix(file, "/") {
+		return fmt.Errorf("file %s is absolute; name it relative to the %s's directory so that the run directory can move", file, kind)
+	}
+	return nil
 }
 
 // formatFloat gives the shortest decimal that reads back as v exactly.

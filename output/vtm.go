@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"fmt"
 	"path/filepath"
-	"strings"
 )
 
 // BlockEntry is one data set of a multiblock file: its name (shown by
@@ -35,12 +34,8 @@ func WriteVTM(path string, entries []BlockEntry) error {
 		if err := checkName(e.Name); err != nil {
 			return fmt.Errorf("multiblock %s: entry %d: name: %w", path, i+1, err)
 		}
-		if err := checkName(e.File); err != nil {
-			return fmt.Errorf("multiblock %s: entry %d: file name: %w", path, i+1, err)
-		}
-		if filepath.IsAbs(e.File) || strings.HasPrefix(e.File, "/") {
-			return fmt.Errorf("multiblock %s: entry %d: file %s is absolute; "+
-				"name it relative to the multiblock file's directory so that the run directory can move", path, i+1, e.File)
+		if err := checkListedFile(e.File, "multiblock file"); err != nil {
+			return fmt.Errorf("multiblock %s: entry %d: %w", path, i+1, err)
 		}
 		fmt.Fprintf(&b, "    <DataSet index=\"%d\" name=\"%s\" file=\"%s\"/>\n",
 			i, escapeAttr(e.Name), escapeAttr(filepath.ToSlash(e.File)))
