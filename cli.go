@@ -15,7 +15,6 @@ import (
 	"os"
 	"os/signal"
 	"path/filepath"
-	"strconv"
 	"strings"
 	"syscall"
 
@@ -173,36 +172,6 @@ func loadCase(path string) (*cases.Case, *cases.Lattice, string, error) {
 		return nil, nil, "", err
 	}
 	return c, l, cs.name, nil
-}
-
-// notOnLevels refuses a case on refined levels (grid.levels > 1) for a
-// command that runs it (what: "run", "sweep point 3", ...): the coupled
-// run on levels (the bodies on the finest level, in drive) is not wired
-// yet (issue 17); 'axiswim check' shows the levels.
-func notOnLevels(c *cases.Case, what string) error {
-	if c == nil || c.Grid.Levels <= 1 {
-		return nil
-	}
-	return cases.Problems{{
-		Key: "grid.levels", Value: strconv.Itoa(c.Grid.Levels),
-		Reason: what + ": the coupled run on refined levels is not wired yet (issue 17: the bodies on the finest level, in drive); " +
-			"'axiswim check' shows the levels, their cost and their limits",
-		Fix: fmt.Sprintf("set grid.levels = %d to run on one uniform lattice", cases.DefaultLevels),
-	}}
-}
-
-// sweepNotOnLevels refuses a sweep with a point on refined levels (see
-// notOnLevels). Points whose case cannot be made are left to the sweep,
-// which reports them as it always did.
-func sweepNotOnLevels(s *cases.Sweep) error {
-	for i, pt := range s.Points() {
-		if _, c, err := s.CaseAt(pt); err == nil {
-			if err := notOnLevels(c, fmt.Sprintf("sweep %s, point %d", s.Name, i+1)); err != nil {
-				return err
-			}
-		}
-	}
-	return nil
 }
 
 // loadSweepDir reads the sweep of a sweep directory (its sweep.toml).

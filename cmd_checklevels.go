@@ -7,7 +7,9 @@ import (
 	"time"
 
 	"axiswim/cases"
+	"axiswim/drive"
 	"axiswim/drive/model"
+	"axiswim/drive/run"
 	"axiswim/lbm"
 	"axiswim/output"
 )
@@ -17,7 +19,7 @@ import (
 // level 0's cells, the levels with their blocks, relaxation times and
 // binding stability rules, the fine region and the spheres' excursions,
 // the node updates and memory against the uniform lattice of the finest
-// spacing, and a run time estimated from the levels' fluid step.
+// spacing, the output and a run time estimated from a timed sample of the coupled run.
 func checkLevels(stdout, stderr io.Writer, c *cases.Case, l *cases.Lattice, threads int, quiet bool) error {
 	ly := l.Layout()
 	n := l.Levels
@@ -104,23 +106,28 @@ func checkLevels(stdout, stderr io.Writer, c *cases.Case, l *cases.Lattice, thre
 	limit, src := cases.MemoryLimit()
 	fmt.Fprintf(stdout, "  memory          %s (limit %s, %s); the uniform lattice of the finest spacing: %s\n",
 		bytesString(l.MemoryBytes()), bytesString(limit), src, bytesString(ly.UniformMemoryBytes))
-	fmt.Fprintln(stdout, "  output          not estimated: runs on levels are not wired yet (issue 17)")
+	im := l.Image(l.ImageCells(c.Output.ImageSpacing))
+	fmt.Fprintf(stdout, "  output          about %s (fields on a uniform image of %d x %d nodes, %.4g m apart (output.image_spacing), pictures, series, checkpoint)\n",
+		bytesString(run.EstimateOutput(c, l)), im.Nz, im.Nr, im.Dx)
 
-	// Timed sample: the levels' own step, without the bodies.
-	cfg := ly.Base
-	cfg.Threads = threads
-	h, err := lbm.NewLevels(cfg, ly.Blocks)
+	// Timed sample: the coupled run itself (bodies, transfers, moves).
+	sim, err := drive.New(c, l, threads)
 	if err != nil {
-		return fmt.Errorf("timed sample: set up the levels: %w", err)
+		return fmt.Errorf("timed sample: %w", err)
 	}
-	defer h.Close()
-	h.Step() // warm up
+	defer sim.Close()
+	h := sim.Levels()
+	if err := sim.Advance(sim.Stride()); err != nil { // warm up
+		return fmt.Errorf("timed sample: %w", err)
+	}
 	steps := 0
 	transfer0 := h.TransferTime()
 	start := time.Now()
 	prog := output.NewProgress(stderr, quiet, 5, "tenths of a second", "timed sample")
-	for time.Since(start) < 500*time.Millisecond && steps < ly.Steps {
-		h.Step()
+	for time.Since(start) < 500*time.Millisecond && steps*f < l.Steps {
+		if err := sim.Advance(sim.Stride()); err != nil {
+			return fmt.Errorf("timed sample: %w", err)
+		}
 		steps++
 		prog.Set(int64(time.Since(start)/(100*time.Millisecond)), fmt.Sprintf("%d steps of level 0", steps))
 	}
@@ -130,7 +137,7 @@ func checkLevels(stdout, stderr io.Writer, c *cases.Case, l *cases.Lattice, thre
 	est := time.Duration(per * float64(ly.Steps) * float64(time.Second))
 	share := float64(h.TransferTime()-transfer0) / float64(elapsed)
 	fine := h.Level(n - 1)
-	fmt.Fprintf(stdout, "  run time        about %s on %d goroutine(s), an estimate: the levels' fluid step without the bodies, %.3g MLUPS over %d step(s) of level 0 (%d of the finest), interface transfers %.0f%% of it\n",
+	fmt.Fprintf(stdout, "  run time        about %s on %d goroutine(s), %.3g MLUPS over %d step(s) of level 0 (%d of the finest), interface transfers %.0f%% of it\n",
 		roundDuration(est), fine.Threads(), ly.UpdatesPerStep/per/1e6, steps, steps*f, 100*share)
 	prec := "float64"
 	if l.Single {

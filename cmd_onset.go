@@ -51,11 +51,6 @@ func cmdOnset(args []string, stdout, stderr io.Writer) error {
 		if search, base, err = study.LoadOnset(dir); err != nil {
 			return fmt.Errorf("resume: %w", err)
 		}
-		if c, err := cases.Parse(filepath.Join(dir, "base case"), base); err == nil {
-			if err := notOnLevels(c, "onset"); err != nil {
-				return err
-			}
-		}
 		if flagsSet(fs)["jobs"] && *jobs != search.Jobs {
 			fmt.Fprintf(stderr, "note: the search runs %d point(s) a round as recorded; -jobs %d is not used on resuming (the rounds would ask for other values)\n", search.Jobs, *jobs)
 		}
@@ -106,9 +101,6 @@ func newOnsetSearch(path, key, between, scale string) (study.OnsetSearch, []byte
 	s.Name = cs.name
 	c, err := cases.Parse(cs.label, cs.src)
 	if err != nil {
-		return s, nil, err
-	}
-	if err := notOnLevels(c, "onset"); err != nil {
 		return s, nil, err
 	}
 	switch {

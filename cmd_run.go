@@ -44,9 +44,6 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	if err := notOnLevels(c, "run"); err != nil {
-		return err
-	}
 	dir = runDir(dir, name)
 	for _, w := range l.Warnings {
 		fmt.Fprintf(stderr, "warning: %s\n", w)

@@ -50,9 +50,6 @@ func cmdSweep(args []string, stdout, stderr io.Writer) error {
 		if err != nil {
 			return err
 		}
-		if err := sweepNotOnLevels(s); err != nil {
-			return err
-		}
 		return planSweep(s, *out, *threads, stdout, stderr)
 	case set["point"] && fs.NArg() == 1:
 		return sweepPoint(fs.Arg(0), *point, *threads, *quiet, stdout, stderr)
@@ -69,14 +66,8 @@ func cmdSweep(args []string, stdout, stderr io.Writer) error {
 		if s, err = loadSweepDir(dir); err != nil {
 			return fmt.Errorf("resume %s: %w", dir, err)
 		}
-		if err := sweepNotOnLevels(s); err != nil {
-			return err
-		}
 	case *resume == "" && fs.NArg() == 1:
 		if s, err = cases.LoadSweep(fs.Arg(0)); err != nil {
-			return err
-		}
-		if err := sweepNotOnLevels(s); err != nil {
 			return err
 		}
 		dir = runDir(*out, "sweep-"+s.Name)
@@ -130,11 +121,6 @@ func sweepPoint(dir string, n, threads int, quiet bool, stdout, stderr io.Writer
 	if n < 1 || n > total {
 		return usageErrorf("-point %d: the sweep in %s has points 1 to %d (see %s)", n, dir, total,
 			filepath.Join(dir, study.PointsFile))
-	}
-	if _, c, err := s.CaseAt(s.Points()[n-1]); err == nil {
-		if err := notOnLevels(c, fmt.Sprintf("sweep %s, point %d", s.Name, n)); err != nil {
-			return err
-		}
 	}
 	ctx, stop := signalContext(nil)
 	defer stop()

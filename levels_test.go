@@ -1,6 +1,7 @@
 package main
 
 import (
+	"encoding/json"
 	"os"
 	"path/filepath"
 	"strings"
@@ -58,7 +59,7 @@ func TestCheckLevels(t *testing.T) {
 		"0.249 times the uniform lattice of the finest spacing (368 x 92 cells",
 		"memory          ",
 		"run time        about ",
-		"an estimate: the levels' fluid step without the bodies",
+		"MLUPS over", "interface transfers", "fields on a uniform image of 368 x 92 nodes",
 		"interface transfers",
 		"kernel          ",
 	} {
@@ -71,20 +72,36 @@ func TestCheckLevels(t *testing.T) {
 	}
 }
 
-// TestRunRefusesLevels: run, sweep and onset refuse a case on more than
-// one level (the coupled run is not wired yet), naming the key and the
-// fix, before they make a directory.
-func TestRunRefusesLevels(t *testing.T) {
+// TestRunOnLevels: run takes a case on two levels to its end and writes
+// what a run on one lattice writes, with the levels in summary.json; a
+// sweep over grid.levels plans both points.
+func TestRunOnLevels(t *testing.T) {
 	dir := t.TempDir()
-	path := demoOnLevels(t, dir, "levels = 2")
-	out := filepath.Join(dir, "out")
-	const why = "grid.levels = 2: run: the coupled run on refined levels is not wired yet"
-	code, _, e := cli(t, "run", "-quiet", "-out", out, path)
-	if code == exitOK || !strings.Contains(e, why) || !strings.Contains(e, "fix: set grid.levels = 1") {
-		t.Errorf("run on levels: exit %d, %s", code, e)
+	src, err := os.ReadFile("testdata/small-swimmer.toml")
+	if err != nil {
+		t.Fatal(err)
 	}
-	if _, err := os.Stat(out); err == nil {
-		t.Errorf("run on levels made %s", out)
+	s := strings.Replace(string(src), "cells_per_radius = 5", "cells_per_radius = 6\nlevels = 2", 1)
+	s = strings.Replace(s, "periods = 6", "periods = 2", 1)
+	path := filepath.Join(dir, "two.toml")
+	os.WriteFile(path, []byte(s), 0o644)
+	out := filepath.Join(dir, "out")
+	code, _, e := cli(t, "run", "-quiet", "-out", out, path)
+	if code != exitOK {
+		t.Fatalf("run on levels: exit %d, %s", code, e)
+	}
+	for _, f := range []string{"summary.json", "series.csv", "periods.csv", "fields/mean.vti", "pictures/mean_vorticity.png"} {
+		if _, err := os.Stat(filepath.Join(out, f)); err != nil {
+			t.Errorf("run on levels: %v", err)
+		}
+	}
+	data, _ := os.ReadFile(filepath.Join(out, "summary.json"))
+	var sum struct {
+		Completed bool
+		Lattice   struct{ Levels []struct{ Nz, Nr int } }
+	}
+	if err := json.Unmarshal(data, &sum); err != nil || !sum.Completed || len(sum.Lattice.Levels) != 2 {
+		t.Errorf("summary of a run on 2 levels: completed %v, %d levels, %v", sum.Completed, len(sum.Lattice.Levels), err)
 	}
 
 	base, err := os.ReadFile("testdata/sweep-swimmer.toml")
@@ -94,20 +111,7 @@ func TestRunRefusesLevels(t *testing.T) {
 	os.WriteFile(filepath.Join(dir, "base.toml"), base, 0o644)
 	sweep := filepath.Join(dir, "levels-sweep.toml")
 	os.WriteFile(sweep, []byte("base = \"base.toml\"\n[[vary]]\nkey = \"grid.levels\"\nvalues = [1, 2]\n"), 0o644)
-	for _, args := range [][]string{
-		{"sweep", "-quiet", "-out", out, sweep},
-		{"sweep", "-plan", "-out", out, sweep},
-	} {
-		code, _, e := cli(t, args...)
-		if code == exitOK || !strings.Contains(e, "grid.levels = 2: sweep levels-sweep, point 2: the coupled run on refined levels is not wired yet") {
-			t.Errorf("%s: exit %d, %s", strings.Join(args, " "), code, e)
-		}
-		if _, err := os.Stat(out); err == nil {
-			t.Errorf("%s made %s", strings.Join(args, " "), out)
-		}
-	}
-	code, _, e = cli(t, "onset", "-quiet", "-out", out, path)
-	if code == exitOK || !strings.Contains(e, "grid.levels = 2: onset: the coupled run on refined levels is not wired yet") {
-		t.Errorf("onset on levels: exit %d, %s", code, e)
+	if code, _, e := cli(t, "sweep", "-plan", "-out", filepath.Join(dir, "plan"), sweep); code != exitOK {
+		t.Errorf("sweep -plan over grid.levels: exit %d, %s", code, e)
 	}
 }

@@ -369,6 +369,10 @@ func TestSpeedCase(t *testing.T) {
 		}
 	}
 	newLevels(t, ly)
+	// the default image of the fields (ImageNodesPerCell's comment)
+	if got := l.ImageCells(0); got != 4 {
+		t.Errorf("default image spacing %d finest cells, ImageNodesPerCell's comment says 4", got)
+	}
 }
 
 // TestLevelsTimeStep: on refined levels the steps per period are whole

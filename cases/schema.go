@@ -290,6 +290,12 @@ type Output struct {
 	Mirror         bool `toml:"mirror" note:"VTK shows the full meridian plane"` // VTK files show the full meridian plane -R..R
 	VTK            bool `toml:"vtk"`                                             // write VTK XML fields
 	Pictures       bool `toml:"pictures"`                                        // write PNG pictures
+	// ImageSpacing is the node spacing (m) of the uniform image of the
+	// fields on refined levels (grid.levels > 1), rounded to the finest
+	// cell times a power of 2 (Lattice.ImageCells); 0 chooses one that
+	// keeps the image's nodes at most the levels' cells. Unused on one
+	// level, whose fields are the lattice's own.
+	ImageSpacing float64 `toml:"image_spacing,omitzero" note:"m, image of the fields on levels" unset:"image_spacing not given: chosen from the levels' cells (levels > 1)"`
 }
 
 // FillDefaults fills in every optional value that is zero (that is, not

@@ -567,4 +567,9 @@ func (c *Case) validateOutput(v *validator) {
 	if p := c.Run.Periods; p > 0 && o.AveragePeriods > p {
 		v.add("output.average_periods", o.AveragePeriods, fmt.Sprintf("exceeds run.periods = %d", p), "give at most run.periods, or 0")
 	}
+	if v.nonNegative("output.image_spacing", o.ImageSpacing, "give the image's node spacing in m, or leave it out to have it chosen") &&
+		o.ImageSpacing > c.Container.Radius && c.Container.Radius > 0 {
+		v.add("output.image_spacing", o.ImageSpacing, fmt.Sprintf("exceeds container.radius = %s", formatValue(c.Container.Radius)),
+			"give a spacing of a few finest cells, or leave it out")
+	}
 }

@@ -1,7 +1,5 @@
 package drive
 
-import "axiswim/lbm"
-
 // MassKeeper holds the mean density of the liquid at its initial value.
 // Interpolated bounce-back, refilling and covering, and the axisymmetric
 // source terms each change the liquid's mass slightly (METHODS.md 6.3);
@@ -18,15 +16,22 @@ type MassKeeper struct {
 	n              int
 }
 
+// A Liquid is a lattice, or refined levels, whose mean density a
+// MassKeeper holds: lbm.Solver and lbm.Levels.
+type Liquid interface {
+	FluidDensity() float64
+	ShiftDensity(drho float64)
+}
+
 // NewMassKeeper starts keeping the current mean density of fl.
-func NewMassKeeper(fl *lbm.Solver, every int) *MassKeeper {
+func NewMassKeeper(fl Liquid, every int) *MassKeeper {
 	return &MassKeeper{Every: every, Rho0: fl.FluidDensity()}
 }
 
 // Step counts one lattice step and corrects at the cadence. The
 // measurement and the correction each cost about one pass over the grid,
 // so a cadence of 200 steps costs about 1% of the run.
-func (m *MassKeeper) Step(fl *lbm.Solver) {
+func (m *MassKeeper) Step(fl Liquid) {
 	m.n++
 	if m.Every <= 0 || m.n%m.Every != 0 {
 		return

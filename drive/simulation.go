@@ -22,8 +22,10 @@ type Simulation struct {
 
 	fields *lbm.Fields
 	mass0  float64
-	sw     *swimmer // nil without spheres
-	warm   bool     // started from another run's final state
+	lv     *onLevels // nil on one uniform lattice
+	after  func()    // AfterStep's function
+	sw     *swimmer  // nil without spheres
+	warm   bool      // started from another run's final state
 	// swimmers are the groups of spheres joined by springs or arms
 	// (Swimmers), lowest first.
 	swimmers [][]int
@@ -37,23 +39,37 @@ func New(c *cases.Case, l *cases.Lattice, threads int) (*Simulation, error) {
 		return nil, fmt.Errorf("solver.collision = %q: unknown operator", c.Solver.Collision)
 	}
 	periodic := c.Container.Ends == cases.EndsPeriodic
-	fl, err := lbm.New(lbm.Config{
-		Nz: l.Nz, Nr: l.Nr, Tau: l.Tau, Collision: col, Magic: c.Solver.Magic,
-		Axisymmetric: true, PeriodicZ: periodic, Threads: threads,
-		Single: c.Solver.Precision == cases.PrecisionSingle,
-	})
-	if err != nil {
-		return nil, fmt.Errorf("set up the lattice: %w", err)
+	s := &Simulation{Case: c, Lattice: l, FrameOnLiquid: periodic}
+	if l.Levels > 1 {
+		lv, err := newOnLevels(c, l, threads)
+		if err != nil {
+			return nil, err
+		}
+		s.lv, s.Fluid = lv, lv.finest()
+	} else {
+		fl, err := lbm.New(lbm.Config{
+			Nz: l.Nz, Nr: l.Nr, Tau: l.Tau, Collision: col, Magic: c.Solver.Magic,
+			Axisymmetric: true, PeriodicZ: periodic, Threads: threads,
+			Single: c.Solver.Precision == cases.PrecisionSingle,
+		})
+		if err != nil {
+			return nil, fmt.Errorf("set up the lattice: %w", err)
+		}
+		s.Fluid = fl
 	}
-	s := &Simulation{Case: c, Lattice: l, Fluid: fl, FrameOnLiquid: periodic}
 	s.Shaker = shakerOf(c)
 	if err := s.setupBodies(); err != nil {
-		fl.Close()
+		s.Close()
 		return nil, err
 	}
 	s.swimmers = cases.Swimmers(c)
-	s.fields = fl.Fields(nil)
-	s.mass0 = fl.Mass3D(s.fields)
+	if s.lv != nil {
+		s.lv.hook(s)
+		s.mass0 = s.lv.h.Mass()
+		return s, nil
+	}
+	s.fields = s.Fluid.Fields(nil)
+	s.mass0 = s.Fluid.Mass3D(s.fields)
 	return s, nil
 }
 
@@ -79,7 +95,31 @@ func Setup(c *cases.Case, threads int) (*Simulation, error) {
 }
 
 // Close releases the solver's goroutines.
-func (s *Simulation) Close() { s.Fluid.Close() }
+func (s *Simulation) Close() {
+	if s.lv != nil {
+		s.lv.h.Close()
+		return
+	}
+	s.Fluid.Close()
+}
+
+// Stride is the number of lattice steps (of the finest level, where the
+// bodies live) that Advance takes at least and in multiples: 1 on one
+// lattice, 2^(levels-1) on refined levels, whose coarsest level steps once
+// while the finest steps that many times.
+func (s *Simulation) Stride() int {
+	if s.lv != nil {
+		return s.lv.stride
+	}
+	return 1
+}
+
+// AfterStep sets fn to run after each lattice step of the bodies' lattice
+// (the finest level), the bodies moved: Time, SphereState and the rest of
+// the bodies' state are then those of that step. Observe and Fields are
+// meant for the ends of Advance only (on refined levels the coarser levels
+// are then between steps). A nil fn removes it.
+func (s *Simulation) AfterStep(fn func()) { s.after = fn }
 
 // Step returns the number of lattice steps taken.
 func (s *Simulation) Step() int64 { return s.Fluid.Steps() }
@@ -100,7 +140,13 @@ func (s *Simulation) liquidForce(t float64) float64 {
 
 // Advance takes n lattice steps: the liquid streams and collides, then
 // the bodies move under the forces of that step (METHODS.md 9.4).
+// On refined levels n must be a multiple of Stride: the levels take n/Stride
+// steps of level 0, the bodies move after each step of the finest level,
+// and the refined levels follow the spheres (onLevels.follow).
 func (s *Simulation) Advance(n int) error {
+	if s.lv != nil {
+		return s.lv.advance(s, n)
+	}
 	for i := 0; i < n; i++ {
 		s.Fluid.SetForce(s.liquidForce(s.Time()), 0)
 		s.Fluid.Step()
@@ -108,6 +154,9 @@ func (s *Simulation) Advance(n int) error {
 			if err := s.stepBodies(s.Fluid.Steps()); err != nil {
 				return err
 			}
+		}
+		if s.after != nil {
+			s.after()
 		}
 	}
 	return nil
@@ -130,6 +179,9 @@ type Observation struct {
 
 // Observe computes the liquid's observables at the current time.
 func (s *Simulation) Observe() Observation {
+	if s.lv != nil {
+		return s.lv.observe(s)
+	}
 	t := s.Time()
 	s.Fluid.SetForce(s.liquidForce(t), 0)
 	var rho float64 // the liquid's mean density, needed with spheres
@@ -192,8 +244,34 @@ func (s *Simulation) massDrift(f *lbm.Fields, rho float64) float64 {
 	return s.Fluid.Mass3D(f)/s.mass0 - 1
 }
 
-// Fields returns the fields of the last Observe.
-func (s *Simulation) Fields() *lbm.Fields { return s.fields }
+// Fields returns the fields of the last Observe on the nodes of View: the
+// lattice's own on one level, on refined levels their uniform image
+// (lbm.Levels.SampleFrom).
+func (s *Simulation) Fields() *lbm.Fields {
+	if s.lv != nil {
+		return s.lv.image(s)
+	}
+	return s.fields
+}
+
+// View is the lattice of the nodes that Fields, SolidMask and BodyVelocity
+// give: Lattice itself on one level, the uniform image of refined levels
+// (cases.Lattice.Image) at the spacing of ViewCells.
+func (s *Simulation) View() *cases.Lattice {
+	if s.lv != nil {
+		return s.lv.view
+	}
+	return s.Lattice
+}
+
+// ViewCells is View's cell in cells of Lattice (the finest level's): 1 on
+// one level.
+func (s *Simulation) ViewCells() int {
+	if s.lv != nil {
+		return s.lv.viewCells
+	}
+	return 1
+}
 
 // Hard stops of the run-time guards (METHODS.md 10.1): Mach 0.3, and a
 // density departing from the reference by more than 10% (our choice: the

@@ -7,12 +7,17 @@ import (
 )
 
 // State is everything of a simulation that a checkpoint keeps to continue
-// bit for bit: the lattice, the bodies and the mass keeper.
+// bit for bit: the lattice (or, on refined levels, the levels), the bodies
+// and the mass keeper.
 type State struct {
 	Lattice lbm.LatticeState
-	Bodies  []BodyState
-	Mass    MassState
-	Mass0   float64
+	Levels  *lbm.LevelsState // refined levels; nil on one lattice
+	// LevelMoves and LevelShift count the refined levels' moves with the
+	// spheres and their sum in level 0's cells (Simulation.LevelMoves).
+	LevelMoves, LevelShift int
+	Bodies                 []BodyState
+	Mass                   MassState
+	Mass0                  float64
 }
 
 // BodyState is one body's part of a State.
@@ -34,7 +39,13 @@ type MassState struct {
 // Capture returns the simulation's state.
 func (s *Simulation) Capture() State {
 	var st State
-	st.Lattice = s.Fluid.Snapshot()
+	if s.lv != nil {
+		ls := s.lv.h.Snapshot()
+		st.Levels = &ls
+		st.LevelMoves, st.LevelShift = s.lv.Moves, s.lv.Shift
+	} else {
+		st.Lattice = s.Fluid.Snapshot()
+	}
 	st.Mass0 = s.mass0
 	if s.sw == nil {
 		return st
@@ -53,8 +64,21 @@ func (s *Simulation) Capture() State {
 // Restore puts a captured state back into a simulation freshly set up
 // from the same case.
 func (s *Simulation) Restore(st State) error {
-	if err := s.Fluid.Restore(st.Lattice); err != nil {
-		return err
+	switch {
+	case s.lv != nil && st.Levels == nil:
+		return fmt.Errorf("the state is of one lattice, the case has %d levels", s.lv.h.Len())
+	case s.lv == nil && st.Levels != nil:
+		return fmt.Errorf("the state is of %d refined levels, the case has one lattice", len(st.Levels.Levels))
+	case s.lv != nil:
+		if err := s.lv.h.Restore(*st.Levels); err != nil {
+			return err
+		}
+		s.lv.moved()
+		s.lv.Moves, s.lv.Shift = st.LevelMoves, st.LevelShift
+	default:
+		if err := s.Fluid.Restore(st.Lattice); err != nil {
+			return err
+		}
 	}
 	s.mass0 = st.Mass0
 	if s.sw == nil {
@@ -64,10 +88,11 @@ func (s *Simulation) Restore(st State) error {
 		return fmt.Errorf("checkpoint has %d spheres, the case %d", len(st.Bodies), len(s.sw.bodies.List))
 	}
 	d := s.sw.dyn
+	off := float64(s.zoff())
 	for k, b := range s.sw.bodies.List {
 		bs := st.Bodies[k]
 		d.Z[k], d.V[k], d.VPrev[k] = bs.Z, bs.V, bs.VPrev
-		b.Shape.Z, b.V = bs.Z, bs.V
+		b.Shape.Z, b.V = bs.Z-off, bs.V
 		b.LinkForce, b.NodeForce, b.NodeImpulse = bs.LinkForce, bs.NodeForce, bs.NodeImpulse
 		b.spread, b.tick = append([]float64(nil), bs.Spread...), bs.Tick
 		b.Covered, b.Uncovered = bs.Covered, bs.Uncovered
@@ -80,4 +105,13 @@ func (s *Simulation) Restore(st State) error {
 	m := s.sw.mass
 	m.Every, m.Rho0, m.Drift, m.Applied, m.n = st.Mass.Every, st.Mass.Rho0, st.Mass.Drift, st.Mass.Applied, st.Mass.N
 	return nil
+}
+
+// Steps is the step count of the state: the lattice's, or on refined levels
+// the finest level's (the steps of Simulation.Step).
+func (st State) Steps() int64 {
+	if st.Levels != nil {
+		return st.Levels.Levels[len(st.Levels.Levels)-1].Steps
+	}
+	return st.Lattice.Steps
 }

@@ -16,6 +16,7 @@ type swimmer struct {
 	mass   *MassKeeper
 	fh     []float64       // scratch: hydrodynamic forces
 	ext    []float64       // scratch: frame, gravity and buoyancy forces
+	local  []float64       // scratch: centres in the bodies' lattice's cells (Simulation.zoff)
 	nodes  []geometry.Node // scratch: the nodes of a body (bodyVelocity)
 }
 
@@ -37,6 +38,7 @@ func (s *Simulation) setupBodies() error {
 		Mass: make([]float64, n), Volume: make([]float64, n), Radius: make([]float64, n),
 		Virtual: make([]float64, n), Z: make([]float64, n), V: make([]float64, n),
 	}
+	off := float64(s.zoff())
 	cv := c.Bodies.VirtualMass
 	if c.Bodies.Coupling == cases.CouplingExplicit {
 		cv = 0
@@ -44,11 +46,11 @@ func (s *Simulation) setupBodies() error {
 	for k, sp := range c.Spheres {
 		a := l.Distance(sp.Radius)
 		vol := 4.0 / 3 * math.Pi * a * a * a
-		shapes[k] = geometry.Sphere{Z: l.Z(sp.Z), Radius: a}
+		d.Z[k] = l.Z(sp.Z)
+		shapes[k] = geometry.Sphere{Z: d.Z[k] - off, Radius: a}
 		d.Radius[k], d.Volume[k] = a, vol
 		d.Mass[k] = sp.Density / c.Fluid.Density * vol
 		d.Virtual[k] = cv * vol
-		d.Z[k] = shapes[k].Z
 	}
 	for _, sp := range c.Springs {
 		d.Springs = append(d.Springs, SpringLink{I: sp.Spheres[0] - 1, J: sp.Spheres[1] - 1,
@@ -67,7 +69,7 @@ func (s *Simulation) setupBodies() error {
 	for _, g := range d.groups {
 		for x, k := range g.members {
 			d.Z[k] = d.Z[g.root] + g.offset[x](0)
-			shapes[k].Z = d.Z[k]
+			shapes[k].Z = d.Z[k] - off
 			d.V[k] = g.offset[x](1) - g.offset[x](0)
 		}
 	}
@@ -82,8 +84,16 @@ func (s *Simulation) setupBodies() error {
 	if err != nil {
 		return fmt.Errorf("place the spheres: %w", err)
 	}
-	s.sw = &swimmer{bodies: bs, dyn: d, mass: NewMassKeeper(s.Fluid, massCadence),
-		fh: make([]float64, n), ext: make([]float64, n)}
+	var keeper *MassKeeper
+	if s.lv != nil {
+		// kept at level 0's steps (onLevels.advance), at the same cadence
+		// in time
+		keeper = NewMassKeeper(s.lv.h, max(1, massCadence/s.lv.stride))
+	} else {
+		keeper = NewMassKeeper(s.Fluid, massCadence)
+	}
+	s.sw = &swimmer{bodies: bs, dyn: d, mass: keeper,
+		fh: make([]float64, n), ext: make([]float64, n), local: make([]float64, n)}
 	return nil
 }
 
@@ -156,7 +166,11 @@ func (s *Simulation) stepBodies(n int64) error {
 				k+1, v, t, s.instabilityRemedy())}
 		}
 	}
-	if err := sw.bodies.MoveAll(sw.dyn.Z, sw.dyn.V); err != nil {
+	off := float64(s.zoff())
+	for k, z := range sw.dyn.Z {
+		sw.local[k] = z - off
+	}
+	if err := sw.bodies.MoveAll(sw.local, sw.dyn.V); err != nil {
 		return fmt.Errorf("t = %.6g s: %w", t, err)
 	}
 	if g, i, j := s.smallestGap(); g < 1 {
@@ -167,7 +181,9 @@ func (s *Simulation) stepBodies(n int64) error {
 		return &GuardError{Time: t, Diagnosis: fmt.Sprintf("the gap between %s closed to %.2f cells at t = %.6g s: lubrication is unresolved "+
 			"(raise bodies.repulsion_range, stiffen the spring, or raise grid.cells_per_radius)", what, g, t)}
 	}
-	sw.mass.Step(s.Fluid)
+	if s.lv == nil {
+		sw.mass.Step(s.Fluid)
+	}
 	return nil
 }
 

@@ -3,9 +3,11 @@ package drive
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"axiswim/cases"
+	"axiswim/lbm"
 )
 
 // SkipPeriods is the number of periods the swimming-speed estimate and the
@@ -37,6 +39,15 @@ func RampPeriods(c *cases.Case) int {
 // number of periods, so the drive's phase carries on.
 func (s *Simulation) StartWarm(c *cases.Case, st State) error {
 	st.Lattice.Steps = 0
+	if st.Levels != nil {
+		ls := *st.Levels
+		ls.Levels = append([]lbm.LatticeState(nil), ls.Levels...)
+		for l := range ls.Levels {
+			ls.Levels[l].Steps = 0
+		}
+		st.Levels = &ls
+		st.LevelMoves, st.LevelShift = 0, 0
+	}
 	if err := s.Restore(st); err != nil {
 		return err
 	}
@@ -63,6 +74,13 @@ func (s *Simulation) SameLattice(c *cases.Case, l *cases.Lattice) string {
 	add(a.Dx == b.Dx, "cell %.4g and %.4g m", a.Dx, b.Dx)
 	add(a.Dt == b.Dt, "time step %.5g and %.5g s", a.Dt, b.Dt)
 	add(a.Tau == b.Tau, "tau %.5g and %.5g", a.Tau, b.Tau)
+	add(a.Levels == b.Levels, "%d and %d levels", a.Levels, b.Levels)
+	if a.Levels == b.Levels && a.Levels > 1 {
+		// the refined levels may have moved along z (lbm.Levels.Restore)
+		x, y := a.Layout().Blocks, b.Layout().Blocks
+		x[0].Z0, y[0].Z0 = 0, 0
+		add(slices.Equal(x, y), "refined levels of other sizes")
+	}
 	x, y := s.Case, c
 	add(x.Solver.Collision == y.Solver.Collision && x.Solver.Precision == y.Solver.Precision &&
 		x.Solver.Magic == y.Solver.Magic, "solver settings")

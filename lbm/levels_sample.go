@@ -24,12 +24,19 @@ func (h *Levels) Origin(l int) (z, r float64) {
 // Fields gives them (zero). levels, when not nil, gets the level each node
 // came from (-1 for a node outside level 0's nodes and sides).
 func (h *Levels) Sample(nz, nr int, spacing float64, dst *Fields, levels []int8) *Fields {
-	if dst == nil || dst.Nz != nz || dst.Nr != nr {
-		dst = NewFields(nz, nr)
-	}
 	fs := make([]*Fields, h.Len())
 	for l := range fs {
 		fs[l] = h.Fields(l, nil)
+	}
+	return h.SampleFrom(fs, nz, nr, spacing, dst, levels)
+}
+
+// SampleFrom is Sample from fields fs[l] of each level l that the caller
+// computed (Levels.Fields) or averaged over time: the same interpolation,
+// with the levels where they are now.
+func (h *Levels) SampleFrom(fs []*Fields, nz, nr int, spacing float64, dst *Fields, levels []int8) *Fields {
+	if dst == nil || dst.Nz != nz || dst.Nr != nr {
+		dst = NewFields(nz, nr)
 	}
 	for j := 0; j < nr; j++ {
 		r := (float64(j) + 0.5) * spacing

@@ -19,7 +19,7 @@ func vtkGrid(l *cases.Lattice) output.Grid {
 // in 1/s, Stokes streamfunction in m^3/s, and the solid mask (1 inside a
 // body, whose velocity there is the body's).
 func vtkFields(s *drive.Simulation, f *lbm.Fields, solid []bool) []output.Field {
-	l := s.Lattice
+	l := s.View()
 	n := f.Nz * f.Nr
 	clean := &lbm.Fields{Nz: f.Nz, Nr: f.Nr, Uz: make([]float64, n), Ur: make([]float64, n), Rho: make([]float64, n)}
 	body := s.BodyVelocity(nil, solid)

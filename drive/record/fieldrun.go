@@ -19,6 +19,7 @@ type Fields struct {
 	sim       *drive.Simulation
 	dir       string // run directory
 	spp       int    // steps per period
+	stride    int    // the simulation's steps per Advance (drive.Simulation.Stride)
 	periods   int
 	avgStart  int // first period of the averaging window (0-based)
 	snapStart int // first period with snapshots
@@ -40,15 +41,16 @@ func NewFields(sim *drive.Simulation, dir string) *Fields {
 	c, l := sim.Case, sim.Lattice
 	P := l.Steps / l.StepsPerPeriod
 	r := &Fields{sim: sim, dir: dir, spp: l.StepsPerPeriod, periods: P,
-		phases: c.Output.SnapshotsPerPeriod}
+		phases: c.Output.SnapshotsPerPeriod, stride: sim.Stride()}
 	r.avgStart = analysisStart(P, sim.SkipPeriods())
 	if n := c.Output.AveragePeriods; n > 0 {
 		r.avgStart = max(0, P-n)
 	}
 	r.snapStart = max(0, P-c.Output.SnapshotPeriods)
-	r.mean = newFieldAverage(l.Nz, l.Nr)
+	v := sim.View()
+	r.mean = newFieldAverage(v.Nz, v.Nr)
 	for i := 0; i < r.phases; i++ {
-		r.phase = append(r.phase, newFieldAverage(l.Nz, l.Nr))
+		r.phase = append(r.phase, newFieldAverage(v.Nz, v.Nr))
 	}
 	return r
 }
@@ -75,12 +77,14 @@ func (r *Fields) Step(n int64) error {
 		return r.err
 	}
 	p, s := int(n)/r.spp, int(n)%r.spp // period index and step within it
-	if p >= r.periods {
+	if p >= r.periods || s%r.stride != 0 {
 		return nil
 	}
+	// On refined levels the fields exist at level 0's steps only: the
+	// phases fall on the nearest of them.
 	inAvg := p >= r.avgStart
-	mi := phaseIndex(s, r.spp, meanSamplesPerPeriod)
-	pi := phaseIndex(s, r.spp, r.phases)
+	mi := phaseIndex(s/r.stride, r.spp/r.stride, meanSamplesPerPeriod)
+	pi := phaseIndex(s/r.stride, r.spp/r.stride, r.phases)
 	snap := p >= r.snapStart && pi >= 0
 	if !(inAvg && (mi >= 0 || pi >= 0)) && !snap {
 		return nil
@@ -124,7 +128,7 @@ func (r *Fields) writeVTI(name string, f *lbm.Fields, solid []bool) error {
 	if err != nil {
 		return err
 	}
-	return output.WriteVTI(filepath.Join(d, name), vtkGrid(r.sim.Lattice), vtkFields(r.sim, f, solid), r.sim.Case.Output.Mirror)
+	return output.WriteVTI(filepath.Join(d, name), vtkGrid(r.sim.View()), vtkFields(r.sim, f, solid), r.sim.Case.Output.Mirror)
 }
 
 // Finish writes the averaged fields, the snapshot collection and the

@@ -35,12 +35,14 @@ func picturesDir(dir string) (string, error) {
 	return d, nil
 }
 
-// spheresNow returns the sphere outlines in lattice coordinates.
+// spheresNow returns the sphere outlines in the cells of the simulation's
+// View.
 func spheresNow(s *drive.Simulation) []output.Circle {
 	var c []output.Circle
+	v := float64(s.ViewCells())
 	for k := range s.Spheres() {
 		z, a := s.SphereCells(k)
-		c = append(c, output.Circle{Z: z, Radius: a})
+		c = append(c, output.Circle{Z: z / v, Radius: a / v})
 	}
 	return c
 }
@@ -50,7 +52,7 @@ func spheresNow(s *drive.Simulation) []output.Circle {
 // axial velocity of the masked nodes (the bodies'), so that the
 // streamfunction integrates across them.
 func vorticityPicture(s *drive.Simulation, f *lbm.Fields, mask []bool, body []float64, title string) output.FieldPicture {
-	l := s.Lattice
+	l := s.View()
 	n := f.Nz * f.Nr
 	clean := &lbm.Fields{Nz: f.Nz, Nr: f.Nr, Uz: make([]float64, n), Ur: make([]float64, n), Rho: make([]float64, n)}
 	copy(clean.Uz, f.Uz)

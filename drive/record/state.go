@@ -137,7 +137,7 @@ func (r *Fields) Restore(st *FieldsState) {
 	r.snaps = append([]output.CollectionEntry(nil), st.Snaps...)
 	r.frames = nil
 	for _, f := range st.Frames {
-		r.frames = append(r.frames, output.FieldPicture{Nz: r.sim.Lattice.Nz, Nr: r.sim.Lattice.Nr,
+		r.frames = append(r.frames, output.FieldPicture{Nz: r.sim.View().Nz, Nr: r.sim.View().Nr,
 			Field: f.Field, Odd: true, Diverging: true, Psi: f.Psi, Spheres: f.Spheres, Title: f.Title,
 			Label: "vorticity (1/s)"})
 	}

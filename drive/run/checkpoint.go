@@ -40,9 +40,12 @@ type checkpointHeader struct {
 // name, so they stay at the top level as in version 1 of the format.
 type runState struct {
 	Lattice lbm.LatticeState
-	Bodies  []drive.BodyState
-	Mass    drive.MassState
-	Mass0   float64
+	Levels  *lbm.LevelsState // refined levels (nil on one lattice; absent from older checkpoints)
+
+	LevelMoves, LevelShift int
+	Bodies                 []drive.BodyState
+	Mass                   drive.MassState
+	Mass0                  float64
 
 	Tracker *record.PeriodsState
 	Fields  *record.FieldsState
@@ -59,12 +62,14 @@ type runState struct {
 
 // simulation returns the simulation's part of the state.
 func (st *runState) simulation() drive.State {
-	return drive.State{Lattice: st.Lattice, Bodies: st.Bodies, Mass: st.Mass, Mass0: st.Mass0}
+	return drive.State{Lattice: st.Lattice, Levels: st.Levels, LevelMoves: st.LevelMoves, LevelShift: st.LevelShift,
+		Bodies: st.Bodies, Mass: st.Mass, Mass0: st.Mass0}
 }
 
 // setSimulation stores the simulation's part of the state.
 func (st *runState) setSimulation(s drive.State) {
-	st.Lattice, st.Bodies, st.Mass, st.Mass0 = s.Lattice, s.Bodies, s.Mass, s.Mass0
+	st.Lattice, st.Levels, st.Bodies, st.Mass, st.Mass0 = s.Lattice, s.Levels, s.Bodies, s.Mass, s.Mass0
+	st.LevelMoves, st.LevelShift = s.LevelMoves, s.LevelShift
 }
 
 type summaryState struct {
@@ -87,7 +92,7 @@ func writeCheckpoint(path, caseHash string, st *runState) error {
 	sum := sha256.Sum256(payload.Bytes())
 	var out bytes.Buffer
 	hdr := checkpointHeader{Format: CheckpointFormat, Version: CheckpointVersion, CaseHash: caseHash,
-		Sum: hex.EncodeToString(sum[:]), Step: st.Lattice.Steps}
+		Sum: hex.EncodeToString(sum[:]), Step: st.simulation().Steps()}
 	if err := gob.NewEncoder(&out).Encode(hdr); err != nil {
 		return fmt.Errorf("checkpoint: %w", err)
 	}

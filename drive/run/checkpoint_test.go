@@ -17,16 +17,28 @@ import (
 // from the wall time and the speed of the run in the summary).
 func TestResumeBitForBit(t *testing.T) {
 	for _, prec := range []string{cases.PrecisionDouble, cases.PrecisionSingle} {
-		t.Run(prec, func(t *testing.T) { testResume(t, prec) })
+		t.Run(prec, func(t *testing.T) { testResume(t, prec, nil) })
 	}
 }
 
-func testResume(t *testing.T, precision string) {
+// TestResumeOnLevels: the same on two refined levels, the swimmer settling
+// under gravity so that the levels follow it (several moves, one of them
+// between the checkpoint and the end).
+func TestResumeOnLevels(t *testing.T) {
+	testResume(t, cases.PrecisionDouble, func(c *cases.Case) {
+		c.Grid.Levels, c.Grid.CellsPerRadius, c.Shaking.Gravity = 2, 6, 3
+	})
+}
+
+func testResume(t *testing.T, precision string, change func(*cases.Case)) {
 	c, err := cases.Load("../../testdata/small-swimmer.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
 	c.Solver.Precision = precision
+	if change != nil {
+		change(c)
+	}
 	l, err := cases.Resolve(c)
 	if err != nil {
 		t.Fatal(err)
@@ -69,7 +81,24 @@ func testResume(t *testing.T, precision string) {
 		}
 		delete(m, "wall_time_s")
 		delete(m, "mlups")
+		lat := m["lattice"].(map[string]any)
+		delete(lat, "transfer_time_s")
+		if lv, ok := lat["levels"].([]any); ok {
+			for _, x := range lv {
+				delete(x.(map[string]any), "kernel_time_s")
+			}
+		}
 		return m
+	}
+	if c.Grid.Levels > 1 {
+		var sum Summary
+		data, _ := os.ReadFile(filepath.Join(whole, "summary.json"))
+		if err := json.Unmarshal(data, &sum); err != nil {
+			t.Fatal(err)
+		}
+		if sum.Lattice.LevelMoves < 2 || len(sum.Lattice.Levels) != 2 || sum.Failure != "" {
+			t.Errorf("on levels: %d moves, %d levels in the summary, failure %q; want 2 or more moves of 2 levels", sum.Lattice.LevelMoves, len(sum.Lattice.Levels), sum.Failure)
+		}
 	}
 	a, _ := json.Marshal(strip(whole))
 	b, _ := json.Marshal(strip(parts))

@@ -41,9 +41,19 @@ func sampleSteps(c *cases.Case, l *cases.Lattice) []int64 {
 // the series and periods files, the VTK fields (snapshots, phase averages
 // and the mean, five arrays of 64-bit values, seven values a node, twice
 // as many rows when mirrored), the pictures (about 300 kB each) and the
-// checkpoint (the populations and the field accumulators).
+// checkpoint (the populations and the field accumulators). On refined
+// levels the fields are those of the uniform image (cases.Lattice.Image)
+// and the populations those of every level.
 func EstimateOutput(c *cases.Case, l *cases.Lattice) int64 {
-	nodes := int64(l.Nz) * int64(l.Nr)
+	im := l.Image(l.ImageCells(c.Output.ImageSpacing))
+	nodes := int64(im.Nz) * int64(im.Nr)
+	pops := 9 * (int64(l.Nz) + 2) * (int64(l.Nr) + 2)
+	if l.Levels > 1 {
+		pops = 0
+		for _, lev := range l.Layout().Levels {
+			pops += 9 * (int64(lev.Nz) + 2) * (int64(lev.Nr) + 2)
+		}
+	}
 	cols := int64(8 + 3*len(c.Spheres) + len(c.Springs))
 	samples := int64(len(sampleSteps(c, l)))
 	total := samples * cols * 18 // about 18 characters a number
@@ -65,6 +75,6 @@ func EstimateOutput(c *cases.Case, l *cases.Lattice) int64 {
 		total += int64(4+o.SnapshotsPerPeriod) * 300 << 10
 	}
 	accum := int64(3 * (1 + o.SnapshotsPerPeriod))
-	total += (9*(int64(l.Nz)+2)*(int64(l.Nr)+2) + accum*nodes + 2*int64(o.SnapshotsPerPeriod)*nodes) * 8
+	total += (pops + accum*nodes + 2*int64(o.SnapshotsPerPeriod)*nodes) * 8
 	return total
 }

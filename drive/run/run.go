@@ -208,6 +208,9 @@ func (r *Run) open(resume *runState) error {
 			return err
 		}
 	}
+	if r.periods != nil {
+		sim.AfterStep(r.periodStep)
+	}
 	r.samples = sampleSteps(c, l)
 	unit, total := "steps", int64(l.Steps)
 	if l.StepsPerPeriod > 0 {
@@ -291,6 +294,16 @@ func (r *Run) record() error {
 	return nil
 }
 
+// periodStep records a step in the period record and writes a period's
+// row when one closes (Simulation.AfterStep).
+func (r *Run) periodStep() {
+	if r.periods.Step() {
+		rows := r.periods.Rows()
+		r.keep(r.periodsCSV.Row(rows[len(rows)-1].Values()...))
+		r.prog.Set(int64(len(rows)), r.status())
+	}
+}
+
 // status is the progress line's note: the mean speed so far.
 func (r *Run) status() string {
 	if r.periods == nil || len(r.periods.Centroids()) < 3 {
@@ -355,17 +368,14 @@ func (r *Run) step(ctx context.Context) bool {
 			r.lastSave = time.Now()
 		}
 	}
-	if err := sim.Advance(1); err != nil {
+	// Stride is 1 on one lattice; on refined levels the steps of level 0
+	// (the period record follows every finest step: AfterStep, periodStep).
+	if err := sim.Advance(sim.Stride()); err != nil {
 		r.failure = err
 		return false
 	}
 	if r.fields != nil {
 		r.keep(r.fields.Step(sim.Step()))
-	}
-	if r.periods != nil && r.periods.Step() {
-		rows := r.periods.Rows()
-		r.keep(r.periodsCSV.Row(rows[len(rows)-1].Values()...))
-		r.prog.Set(int64(len(rows)), r.status())
 	}
 	for r.nextSample < len(r.samples) && sim.Step() >= r.samples[r.nextSample] {
 		r.nextSample++
@@ -397,8 +407,12 @@ func (r *Run) finish() (*Summary, error) {
 	sum.Steps = sim.Step()
 	sum.SimulatedTime = sim.Time()
 	sum.WallTime = wall
+	updates := float64(l.Nz*l.Nr) * float64(sum.Steps)
+	if h := sim.Levels(); h != nil {
+		updates = summarizeLevels(&sum.Lattice, sim)
+	}
 	if wall > 0 {
-		sum.MLUPS = float64(l.Nz*l.Nr) * float64(sum.Steps) / wall / 1e6
+		sum.MLUPS = updates / wall / 1e6
 	}
 	drift, applied := sim.MassDrift()
 	sum.MaxMassDrift = math.Max(sum.MaxMassDrift, drift)
@@ -421,7 +435,7 @@ func (r *Run) finish() (*Summary, error) {
 		mf, mask, err := r.fields.Finish()
 		r.keep(err)
 		if first, last, samples := r.fields.Averaged(); err == nil && sim.Spheres() > 0 && samples > 0 {
-			sum.Streaming = flow.Measure(mf, mask, sim.FrameOnLiquid, swimmerSpan(sim), l, first, last)
+			sum.Streaming = flow.Measure(mf, mask, sim.FrameOnLiquid, swimmerSpan(sim), sim.View(), first, last)
 			r.keep(record.WriteMetrics(r.opt.Out, sum.Streaming))
 		}
 	}
@@ -442,11 +456,34 @@ func (r *Run) finish() (*Summary, error) {
 	return sum, r.failure
 }
 
-// swimmerSpan is where the spheres lie on the axis, lattice units.
+// summarizeLevels fills in the levels of a run on refined levels and
+// returns the node updates of all levels so far.
+func summarizeLevels(ls *LatticeSummary, sim *drive.Simulation) float64 {
+	h, ly := sim.Levels(), sim.Lattice.Layout()
+	ls.Levels = ls.Levels[:0]
+	var updates float64
+	for i := range h.Len() {
+		s, lev := h.Level(i), ly.Levels[i]
+		nz, nr := s.Size()
+		u := float64(nz*nr) * float64(s.Steps())
+		updates += u
+		ls.Levels = append(ls.Levels, LevelSummary{Nz: nz, Nr: nr, CellSize: lev.Dx, TimeStep: lev.Dt, Tau: lev.Tau,
+			NodeUpdates: u, KernelTime: s.KernelTime().Seconds()})
+	}
+	ls.TransferTime = h.TransferTime().Seconds()
+	ls.LevelMoves, ls.LevelShift = sim.LevelMoves()
+	ls.ImageSpacing = sim.View().Dx
+	return updates
+}
+
+// swimmerSpan is where the spheres lie on the axis, in the cells of the
+// simulation's View.
 func swimmerSpan(sim *drive.Simulation) flow.Span {
 	sp := flow.Span{Lo: math.Inf(1), Hi: math.Inf(-1)}
+	v := float64(sim.ViewCells())
 	for k := range sim.Spheres() {
 		z, a := sim.SphereCells(k)
+		z, a = z/v, a/v
 		sp.Lo = math.Min(sp.Lo, z-a)
 		sp.Hi = math.Max(sp.Hi, z+a)
 		sp.MaxRadius = math.Max(sp.MaxRadius, a)

@@ -78,6 +78,28 @@ type LatticeSummary struct {
 	Bound          string  `json:"time_step_bound"`
 	Threads        int     `json:"threads"`
 	Kernel         string  `json:"kernel"` // the kernel path: avx512, avx2 or portable
+	// On refined levels (grid.levels > 1): Nz x Nr, CellSize, TimeStep and
+	// Tau above are the finest level's (Nz x Nr the uniform lattice of that
+	// spacing over the container); each level's cells, node updates and
+	// time; the interface transfers' time; how often the refined levels
+	// moved with the spheres and by how many of level 0's cells in all;
+	// and the spacing of the uniform image of the fields (m).
+	Levels       []LevelSummary `json:"levels,omitempty"`
+	TransferTime float64        `json:"transfer_time_s,omitempty"`
+	LevelMoves   int            `json:"level_moves,omitempty"`
+	LevelShift   int            `json:"level_shift_cells,omitempty"`
+	ImageSpacing float64        `json:"image_spacing_m,omitempty"`
+}
+
+// LevelSummary is one level of a run on refined levels, 0 the coarsest.
+type LevelSummary struct {
+	Nz          int     `json:"nz"`
+	Nr          int     `json:"nr"`
+	CellSize    float64 `json:"cell_size_m"`
+	TimeStep    float64 `json:"time_step_s"`
+	Tau         float64 `json:"tau"`
+	NodeUpdates float64 `json:"node_updates"`  // cells x the level's steps so far
+	KernelTime  float64 `json:"kernel_time_s"` // this process's time in the level's fused step
 }
 
 // SwimmerSummary is one swimmer of a case with several.
