@@ -90,7 +90,8 @@ func TestRunOnLevels(t *testing.T) {
 	if code != exitOK {
 		t.Fatalf("run on levels: exit %d, %s", code, e)
 	}
-	for _, f := range []string{"summary.json", "series.csv", "periods.csv", "fields/mean.vti", "pictures/mean_vorticity.png"} {
+	for _, f := range []string{"summary.json", "series.csv", "periods.csv", "fields/mean.vti", "pictures/mean_vorticity.png",
+		"fields/snapshot_p0002_00.vtm", "fields/levels/snapshot_p0002_00_level0.vti", "fields/levels/snapshot_p0002_00_level1.vti"} {
 		if _, err := os.Stat(filepath.Join(out, f)); err != nil {
 			t.Errorf("run on levels: %v", err)
 		}

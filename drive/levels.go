@@ -274,6 +274,18 @@ func (lv *onLevels) observe(s *Simulation) Observation {
 	}
 }
 
+// LevelFields returns refined level l's fields of the last Observe, in
+// the level's own cells and lattice units (nil on one lattice).
+func (s *Simulation) LevelFields(l int) *lbm.Fields {
+	if s.lv == nil {
+		return nil
+	}
+	if s.lv.fs[l] == nil {
+		s.Observe()
+	}
+	return s.lv.fs[l]
+}
+
 // image is Simulation.Fields on levels: the uniform image of the last
 // Observe's fields (lbm.Levels.SampleFrom), at View's nodes.
 func (lv *onLevels) image(s *Simulation) *lbm.Fields {

@@ -19,13 +19,21 @@ func vtkGrid(l *cases.Lattice) output.Grid {
 // in 1/s, Stokes streamfunction in m^3/s, and the solid mask (1 inside a
 // body, whose velocity there is the body's).
 func vtkFields(s *drive.Simulation, f *lbm.Fields, solid []bool) []output.Field {
-	l := s.View()
+	return vtkFieldsOn(s.View(), s.FrameOnLiquid, f, solid, s.BodyVelocity(nil, solid))
+}
+
+// vtkFieldsOn is vtkFields for fields on the nodes of lattice l (a level
+// of refined levels, or the simulation's View), body the velocity of the
+// bodies at the solid nodes (nil: at rest in the container frame).
+func vtkFieldsOn(l *cases.Lattice, frameOnLiquid bool, f *lbm.Fields, solid []bool, body []float64) []output.Field {
 	n := f.Nz * f.Nr
 	clean := &lbm.Fields{Nz: f.Nz, Nr: f.Nr, Uz: make([]float64, n), Ur: make([]float64, n), Rho: make([]float64, n)}
-	body := s.BodyVelocity(nil, solid)
 	for i := 0; i < n; i++ {
 		if solid[i] {
-			clean.Uz[i], clean.Rho[i] = body[i], 1 // rigid motion inside a body
+			clean.Rho[i] = 1 // rigid motion inside a body
+			if body != nil {
+				clean.Uz[i] = body[i]
+			}
 			continue
 		}
 		clean.Uz[i], clean.Ur[i], clean.Rho[i] = f.Uz[i], f.Ur[i], f.Rho[i]
@@ -40,7 +48,7 @@ func vtkFields(s *drive.Simulation, f *lbm.Fields, solid []bool) []output.Field 
 			mask[i] = 1
 		}
 	}
-	om := lbm.Vorticity(clean, s.FrameOnLiquid)
+	om := lbm.Vorticity(clean, frameOnLiquid)
 	psi := lbm.Streamfunction(clean)
 	for i := range om {
 		om[i] = l.RateSI(om[i])

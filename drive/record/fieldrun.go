@@ -111,6 +111,12 @@ func (r *Fields) Step(n int64) error {
 			return err
 		}
 		r.snaps = append(r.snaps, output.CollectionEntry{Time: r.sim.Time(), File: name})
+		if r.sim.Levels() != nil {
+			if err := r.writeLevels(fmt.Sprintf("snapshot_p%04d_%02d", p+1, pi)); err != nil {
+				r.err = err
+				return err
+			}
+		}
 	}
 	return nil
 }
@@ -129,6 +135,45 @@ func (r *Fields) writeVTI(name string, f *lbm.Fields, solid []bool) error {
 		return err
 	}
 	return output.WriteVTI(filepath.Join(d, name), vtkGrid(r.sim.View()), vtkFields(r.sim, f, solid), r.sim.Case.Output.Mirror)
+}
+
+// writeLevels writes the refined levels' fields of the last Observe as
+// they are, each level an ImageData file of its own spacing in
+// fields/levels/, joined by fields/NAME.vtm (a multiblock data set that
+// VTK's readers open as-is, output.WriteVTM): level 0 first, each finer
+// level over the part of its parent it covers (the parent's cells there
+// hold the restricted values). Nodes inside a body are marked solid, with
+// the velocity zero.
+func (r *Fields) writeLevels(name string) error {
+	d, err := r.fieldsDir()
+	if err != nil {
+		return err
+	}
+	if err := os.MkdirAll(filepath.Join(d, "levels"), 0o755); err != nil {
+		return fmt.Errorf("fields: %w", err)
+	}
+	h, l := r.sim.Levels(), r.sim.Lattice
+	var blocks []output.BlockEntry
+	for lev := range h.Len() {
+		f, s := r.sim.LevelFields(lev), h.Level(lev)
+		solid := make([]bool, f.Nz*f.Nr)
+		for j := range f.Nr {
+			for k := range f.Nz {
+				solid[f.At(k, j)] = s.Solid(k, j)
+			}
+		}
+		// level lev's cell is 2^(levels-1-lev) finest cells (l's)
+		ll := l.Image(1 << (h.Len() - 1 - lev))
+		z0, r0 := h.Origin(lev) // level 0's cells
+		c0 := float64(int(1) << (h.Len() - 1))
+		g := output.Grid{Nz: f.Nz, Nr: f.Nr, Z0: l.ZSI(z0*c0) + 0.5*ll.Dx, R0: l.DistanceSI(r0*c0) + 0.5*ll.Dx, Spacing: ll.Dx}
+		file := filepath.Join("levels", fmt.Sprintf("%s_level%d.vti", name, lev))
+		if err := output.WriteVTI(filepath.Join(d, file), g, vtkFieldsOn(ll, r.sim.FrameOnLiquid, f, solid, nil), r.sim.Case.Output.Mirror); err != nil {
+			return err
+		}
+		blocks = append(blocks, output.BlockEntry{Name: fmt.Sprintf("level %d", lev), File: file})
+	}
+	return output.WriteVTM(filepath.Join(d, name+".vtm"), blocks)
 }
 
 // Finish writes the averaged fields, the snapshot collection and the
