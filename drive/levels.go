@@ -137,11 +137,12 @@ func (lv *onLevels) advance(s *Simulation, n int) error {
 }
 
 // follow keeps the spheres inside the finest level (issue 17): when the
-// surfaces come within half the fine margin of an edge of the finest level
-// that is an interface (not the container's end), the refined levels move
-// by whole cells of level 0 (lbm.Levels.MoveAll) so that the margin on
-// that side is whole again, as far as the other side keeps half of its
-// own and level 1 keeps clear of the container's ends (lbm.Block's rule).
+// surfaces come within half the fine margin (followAt) of an edge of the
+// finest level that is an interface (not the container's end), the refined
+// levels move by whole cells of level 0 (lbm.Levels.MoveAll) so that the
+// margin on that side is whole again, as far as the other side keeps half
+// of its own and level 1 keeps clear of the container's ends (lbm.Block's
+// rule).
 // The oscillation of the spheres is inside the layout's region
 // (cases.Case.Excursions), so only drift (swimming, settling) moves the
 // levels. A sphere within cases.MinFineMarginCells of such an edge stops
@@ -154,7 +155,8 @@ func (lv *onLevels) follow(s *Simulation) error {
 	if (openLo && lo < cases.MinFineMarginCells) || (openHi && hi < cases.MinFineMarginCells) {
 		t := s.Time()
 		return &GuardError{Time: t, Diagnosis: fmt.Sprintf("at t = %.6g s a sphere came within %.3g finest cells of the edge of the finest level, "+
-			"which could not follow it (level 1 is held by the container's ends): raise grid.fine_margin, or use fewer levels", t, math.Min(lo, hi))}
+			"which could not follow it (the spheres move further than the fine region allows, or level 1 is held by the container's ends): "+
+			"raise grid.fine_margin, or use fewer levels", t, math.Min(lo, hi))}
 	}
 	return nil
 }
@@ -178,13 +180,13 @@ func (lv *onLevels) gaps(s *Simulation) (lo, hi float64, openLo, openHi bool) {
 // level 0's cells (0: none).
 func (lv *onLevels) shiftFor(s *Simulation) int {
 	lo, hi, openLo, openHi := lv.gaps(s)
-	half, st := lv.margin/2, float64(lv.stride)
+	half, full, st := lv.followAt()
 	var dz int
 	switch {
-	case openLo && lo < half && hi > half:
-		dz = max(-int(math.Ceil((lv.margin-lo)/st)), -int(math.Floor((hi-half)/st)))
-	case openHi && hi < half && lo > half:
-		dz = min(int(math.Ceil((lv.margin-hi)/st)), int(math.Floor((lo-half)/st)))
+	case openLo && lo < half && hi > lo:
+		dz = max(-int(math.Ceil((full-lo)/st)), -int(math.Floor((hi-half)/st)))
+	case openHi && hi < half && lo > hi:
+		dz = min(int(math.Ceil((full-hi)/st)), int(math.Floor((lo-half)/st)))
 	}
 	if dz == 0 {
 		return 0
@@ -198,6 +200,17 @@ func (lv *onLevels) shiftFor(s *Simulation) int {
 	b := lv.h.Block(1)
 	nz0, _ := lv.h.Level(0).Size()
 	return min(max(dz, cases.MinLevelMargin-b.Z0), nz0-cases.MinLevelMargin-b.Nz-b.Z0)
+}
+
+// followAt returns follow's thresholds in finest cells: a gap below at
+// moves the levels, so that the gap is full again; and level 0's cell.
+// at is half the fine margin, but at least one step of level 0 (the most a
+// sphere can move in one, at the wall CFL limit of half a finest cell per
+// finest step, is less) above the guard's cases.MinFineMarginCells.
+func (lv *onLevels) followAt() (at, full, cell float64) {
+	cell = float64(lv.stride)
+	at = math.Max(lv.margin/2, cases.MinFineMarginCells+cell)
+	return at, math.Max(lv.margin, at+cell), cell
 }
 
 // move moves the refined levels by dz cells of level 0, the bodies with
