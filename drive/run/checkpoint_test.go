@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"fmt"
 	"os"
 	"path/filepath"
 	"testing"
@@ -21,12 +22,13 @@ func TestResumeBitForBit(t *testing.T) {
 	}
 }
 
-// TestResumeOnLevels: the same on two refined levels, the swimmer settling
-// under gravity so that the levels follow it (several moves, one of them
-// between the checkpoint and the end).
+// TestResumeOnLevels: the same on two refined levels over 4 periods, the
+// swimmer settling under gravity with a fine margin of 1.5 radii so that
+// the levels follow it (moves before and after the checkpoint).
 func TestResumeOnLevels(t *testing.T) {
 	testResume(t, cases.PrecisionDouble, func(c *cases.Case) {
-		c.Grid.Levels, c.Grid.CellsPerRadius, c.Shaking.Gravity = 2, 6, 3
+		c.Grid.Levels, c.Grid.CellsPerRadius, c.Shaking.Gravity, c.Grid.FineMargin = 2, 6, 3, 1.5
+		c.Run.Periods = 4
 	})
 }
 
@@ -49,20 +51,26 @@ func testResume(t *testing.T, precision string, change func(*cases.Case)) {
 	if _, err := Execute(ctx, c, l, Options{Out: whole, Quiet: true}); err != nil {
 		t.Fatal(err)
 	}
-	// stop in the middle of the third period, inside the averaging window
-	stop := int64(l.StepsPerPeriod*4 + l.StepsPerPeriod/3)
+	// stop a third into the second-last period, inside the averaging window
+	stop := int64(l.StepsPerPeriod*(c.Run.Periods-2) + l.StepsPerPeriod/3)
 	sum, err := Execute(ctx, c, l, Options{Out: parts, Quiet: true, StopAfter: stop})
 	if err != nil || !sum.Interrupted {
 		t.Fatalf("first part: interrupted %v, err %v", sum != nil && sum.Interrupted, err)
 	}
+	parts0 := sum.Lattice.LevelMoves
 	if _, err := os.Stat(filepath.Join(parts, CheckpointFile)); err != nil {
 		t.Fatalf("no checkpoint after the interruption: %v", err)
 	}
 	if _, err := Execute(ctx, c, l, Options{Out: parts, Quiet: true, Resume: true}); err != nil {
 		t.Fatal(err)
 	}
-	for _, f := range []string{"series.csv", "periods.csv", "metrics.csv", "fields/mean.vti",
-		"fields/phase_03.vti", "fields/snapshot_p0006_05.vti", "fields/snapshots.pvd"} {
+	last := fmt.Sprintf("fields/snapshot_p%04d_05", c.Run.Periods)
+	files := []string{"series.csv", "periods.csv", "metrics.csv", "fields/mean.vti",
+		"fields/phase_03.vti", last + ".vti", "fields/snapshots.pvd"}
+	if c.Grid.Levels > 1 {
+		files = append(files, last+".vtm", "fields/levels/snapshot_p"+last[len("fields/snapshot_p"):]+"_level1.vti")
+	}
+	for _, f := range files {
 		a, err1 := os.ReadFile(filepath.Join(whole, f))
 		b, err2 := os.ReadFile(filepath.Join(parts, f))
 		if err1 != nil || err2 != nil {
@@ -96,8 +104,9 @@ func testResume(t *testing.T, precision string, change func(*cases.Case)) {
 		if err := json.Unmarshal(data, &sum); err != nil {
 			t.Fatal(err)
 		}
-		if sum.Lattice.LevelMoves < 2 || len(sum.Lattice.Levels) != 2 || sum.Failure != "" {
-			t.Errorf("on levels: %d moves, %d levels in the summary, failure %q; want 2 or more moves of 2 levels", sum.Lattice.LevelMoves, len(sum.Lattice.Levels), sum.Failure)
+		if parts0 == 0 || sum.Lattice.LevelMoves == parts0 || len(sum.Lattice.Levels) != 2 || sum.Failure != "" {
+			t.Errorf("on levels: %d moves before the checkpoint and %d in all, %d levels in the summary, failure %q; want moves before and after it, 2 levels",
+				parts0, sum.Lattice.LevelMoves, len(sum.Lattice.Levels), sum.Failure)
 		}
 	}
 	a, _ := json.Marshal(strip(whole))
