@@ -80,6 +80,10 @@ func cmdRun(args []string, stdout, stderr io.Writer) error {
 func printSummary(w io.Writer, dir string, sum *run.Summary) {
 	fmt.Fprintf(w, "%s: %d steps, %.4g s simulated in %.1f s wall (%.1f MLUPS, %s kernel, %d goroutines)\n",
 		dir, sum.Steps, sum.SimulatedTime, sum.WallTime, sum.MLUPS, sum.Lattice.Kernel, sum.Lattice.Threads)
+	if lv := sum.Lattice; len(lv.Levels) > 0 {
+		fmt.Fprintf(w, "  on %d levels (cells %.4g m to %.4g m; steps counted on the finest), the refined ones moved %d times (%d cells of level 0); transfers between levels %.0f%% of the wall time\n",
+			len(lv.Levels), lv.Levels[len(lv.Levels)-1].CellSize, lv.Levels[0].CellSize, lv.LevelMoves, lv.LevelShift, 100*lv.TransferTime/math.Max(sum.WallTime, 1e-9))
+	}
 	if sum.MeanVelocity != nil {
 		u, du := *sum.MeanVelocity, *sum.MeanVelocityUncertainty
 		switch {

@@ -28,9 +28,9 @@ type onLevels struct {
 	img       *lbm.Fields
 	imgOK     bool
 
-	// Moves counts the moves of the refined levels and Shift their sum, in
+	// moves counts the moves of the refined levels and shift their sum, in
 	// level 0's cells (signed, toward +z).
-	Moves, Shift int
+	moves, shift int
 }
 
 // newOnLevels sets up the levels of lattice l (Lattice.Layout).
@@ -87,7 +87,7 @@ func (s *Simulation) LevelMoves() (moves, cells int) {
 	if s.lv == nil {
 		return 0, 0
 	}
-	return s.lv.Moves, s.lv.Shift
+	return s.lv.moves, s.lv.shift
 }
 
 // hook joins the simulation to its levels: the bodies move after each
@@ -224,8 +224,8 @@ func (lv *onLevels) move(s *Simulation, dz int) error {
 	}
 	s.sw.bodies.ShiftZ(dz * lv.stride)
 	lv.moved()
-	lv.Moves++
-	lv.Shift += dz
+	lv.moves++
+	lv.shift += dz
 	return nil
 }
 

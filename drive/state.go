@@ -42,7 +42,7 @@ func (s *Simulation) Capture() State {
 	if s.lv != nil {
 		ls := s.lv.h.Snapshot()
 		st.Levels = &ls
-		st.LevelMoves, st.LevelShift = s.lv.Moves, s.lv.Shift
+		st.LevelMoves, st.LevelShift = s.lv.moves, s.lv.shift
 	} else {
 		st.Lattice = s.Fluid.Snapshot()
 	}
@@ -74,7 +74,7 @@ func (s *Simulation) Restore(st State) error {
 			return err
 		}
 		s.lv.moved()
-		s.lv.Moves, s.lv.Shift = st.LevelMoves, st.LevelShift
+		s.lv.moves, s.lv.shift = st.LevelMoves, st.LevelShift
 	default:
 		if err := s.Fluid.Restore(st.Lattice); err != nil {
 			return err

@@ -64,6 +64,7 @@ func Checks() []Check {
 		{Name: "sphere-translating-fine", Full: true, Run: checkTranslatingFine},
 		{Name: "demo-resolution", Full: true, Run: checkDemoResolution},
 		{Name: "demo-float32", Full: true, Run: checkDemoPrecision},
+		{Name: "refined-demo", Full: true, Run: checkRefinedDemo},
 		{Name: "three-sphere-stokes", Full: true, Run: checkThreeSphere},
 		{Name: "three-sphere-container", Full: true, Run: checkThreeSphereContainer},
 		{Name: "three-sphere-resolution", Full: true, Run: checkThreeSphereResolution},
