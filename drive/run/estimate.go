@@ -42,16 +42,19 @@ func sampleSteps(c *cases.Case, l *cases.Lattice) []int64 {
 // and the mean, five arrays of 64-bit values, seven values a node, twice
 // as many rows when mirrored), the pictures (about 300 kB each) and the
 // checkpoint (the populations and the field accumulators). On refined
-// levels the fields are those of the uniform image (cases.Lattice.Image)
-// and the populations those of every level.
+// levels the fields are those of the uniform image (cases.Lattice.Image),
+// each snapshot is written as the levels too, and the populations are those
+// of every level.
 func EstimateOutput(c *cases.Case, l *cases.Lattice) int64 {
 	im := l.Image(l.ImageCells(c.Output.ImageSpacing))
 	nodes := int64(im.Nz) * int64(im.Nr)
 	pops := 9 * (int64(l.Nz) + 2) * (int64(l.Nr) + 2)
+	var levelNodes int64 // the levels' own cells, written with each snapshot
 	if l.Levels > 1 {
 		pops = 0
 		for _, lev := range l.Layout().Levels {
 			pops += 9 * (int64(lev.Nz) + 2) * (int64(lev.Nr) + 2)
+			levelNodes += int64(lev.Nz) * int64(lev.Nr)
 		}
 	}
 	cols := int64(8 + 3*len(c.Spheres) + len(c.Springs))
@@ -64,12 +67,13 @@ func EstimateOutput(c *cases.Case, l *cases.Lattice) int64 {
 	total += periods * int64(4+2*len(c.Springs)+2*len(c.Spheres)) * 18
 	o := c.Output
 	if o.VTK {
-		files := int64(o.SnapshotsPerPeriod*min(o.SnapshotPeriods, int(periods)) + o.SnapshotsPerPeriod + 1)
-		per := nodes * 7 * 8
+		snaps := int64(o.SnapshotsPerPeriod * min(o.SnapshotPeriods, int(periods)))
+		files := snaps + int64(o.SnapshotsPerPeriod+1)
+		per, perLevels := nodes*7*8, levelNodes*7*8
 		if o.Mirror {
-			per *= 2
+			per, perLevels = 2*per, 2*perLevels
 		}
-		total += files * per
+		total += files*per + snaps*perLevels
 	}
 	if o.Pictures && len(c.Spheres) > 0 {
 		total += int64(4+o.SnapshotsPerPeriod) * 300 << 10
