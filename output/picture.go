@@ -24,6 +24,12 @@ type Circle struct {
 	Z, Radius float64
 }
 
+// Box is a region from the axis, Z0 <= z <= Z1, r <= R, in cells: the
+// outline of a refined level, drawn dashed and mirrored about the axis.
+type Box struct {
+	Z0, Z1, R float64
+}
+
 // FieldPicture describes a picture of a node field of the (z, r) lattice.
 // The picture shows the whole section of the container, -R..R: z runs to
 // the right, r upwards, and the half below the axis is the mirror image of
@@ -70,6 +76,9 @@ type FieldPicture struct {
 
 	// Spheres are drawn as grey disks with a black outline.
 	Spheres []Circle
+
+	// Boxes are outlined with dashed black lines (the refined levels).
+	Boxes []Box
 
 	// PixelsPerCell is the size of a cell in pixels; 0 chooses the largest
 	// that keeps the field within 1600 pixels in width and height (at least
@@ -358,6 +367,15 @@ func (p *FieldPicture) render() (*image.RGBA, error) {
 	c.SetLineWidth(1)
 	c.SetLineDash([]vg.Length{8, 5}, 0)
 	c.Stroke(axis)
+	c.SetLineDash(nil, 0)
+
+	c.SetColor(color.Black)
+	c.SetLineWidth(1)
+	c.SetLineDash([]vg.Length{4, 4}, 0)
+	for _, b := range p.Boxes {
+		x0, x1 := float64(l.fieldX)+b.Z0*float64(l.ppc), float64(l.fieldX)+b.Z1*float64(l.ppc)
+		rect(c, pt(x0, axisY+b.R*float64(l.ppc)), pt(x1, axisY-b.R*float64(l.ppc)))
+	}
 	c.SetLineDash(nil, 0)
 
 	for _, s := range p.Spheres {

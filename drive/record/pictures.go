@@ -47,6 +47,26 @@ func spheresNow(s *drive.Simulation) []output.Circle {
 	return c
 }
 
+// levelBoxes returns the outlines of the refined levels (1 and finer) in
+// the cells of the simulation's View, where they are now; none on one
+// lattice.
+func levelBoxes(s *drive.Simulation) []output.Box {
+	h := s.Levels()
+	if h == nil {
+		return nil
+	}
+	// level 0's cell in View's cells
+	c0 := float64(s.Stride()) / float64(s.ViewCells())
+	var out []output.Box
+	for l := 1; l < h.Len(); l++ {
+		z0, r0 := h.Origin(l)
+		nz, nr := h.Level(l).Size()
+		sc := math.Ldexp(1, -l) // level l's cell in level 0's
+		out = append(out, output.Box{Z0: z0 * c0, Z1: (z0 + float64(nz)*sc) * c0, R: (r0 + float64(nr)*sc) * c0})
+	}
+	return out
+}
+
 // vorticityPicture returns the picture of a field's vorticity (1/s) with
 // its streamlines, NaN where mask is set. body, when not nil, gives the
 // axial velocity of the masked nodes (the bodies'), so that the
@@ -72,7 +92,7 @@ func vorticityPicture(s *drive.Simulation, f *lbm.Fields, mask []bool, body []fl
 		}
 	}
 	return output.FieldPicture{Nz: f.Nz, Nr: f.Nr, Field: om, Odd: true, Diverging: true,
-		Psi: psi, Spheres: spheresNow(s), Title: title, Label: "vorticity (1/s)"}
+		Psi: psi, Spheres: spheresNow(s), Boxes: levelBoxes(s), Title: title, Label: "vorticity (1/s)"}
 }
 
 // WriteCharts draws the swimmer's charts into dir/pictures: the centroid

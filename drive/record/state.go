@@ -51,6 +51,7 @@ type FieldsState struct {
 type FrameState struct {
 	Field, Psi []float64
 	Spheres    []output.Circle
+	Boxes      []output.Box
 	Title      string
 }
 
@@ -121,7 +122,7 @@ func (r *Fields) Capture() *FieldsState {
 		st.Phase = append(st.Phase, p.capture())
 	}
 	for _, f := range r.frames {
-		st.Frames = append(st.Frames, FrameState{Field: f.Field, Psi: f.Psi, Spheres: f.Spheres, Title: f.Title})
+		st.Frames = append(st.Frames, FrameState{Field: f.Field, Psi: f.Psi, Spheres: f.Spheres, Boxes: f.Boxes, Title: f.Title})
 	}
 	return st
 }
@@ -138,7 +139,7 @@ func (r *Fields) Restore(st *FieldsState) {
 	r.frames = nil
 	for _, f := range st.Frames {
 		r.frames = append(r.frames, output.FieldPicture{Nz: r.sim.View().Nz, Nr: r.sim.View().Nr,
-			Field: f.Field, Odd: true, Diverging: true, Psi: f.Psi, Spheres: f.Spheres, Title: f.Title,
+			Field: f.Field, Odd: true, Diverging: true, Psi: f.Psi, Spheres: f.Spheres, Boxes: f.Boxes, Title: f.Title,
 			Label: "vorticity (1/s)"})
 	}
 }
