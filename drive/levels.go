@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"axiswim/cases"
+	"axiswim/drive/flow"
 	"axiswim/lbm"
 )
 
@@ -285,6 +286,24 @@ func (lv *onLevels) observe(s *Simulation) Observation {
 		MaxRho:            maxRho,
 		MaxAt:             [2]float64{l.ZSI(atZ * st), l.DistanceSI(atR * st)},
 	}
+}
+
+// LevelOutlines returns the outlines of the refined levels (1 and finer)
+// where they are now, in the cells of View; none on one lattice.
+func (s *Simulation) LevelOutlines() []flow.Box {
+	if s.lv == nil {
+		return nil
+	}
+	h := s.lv.h
+	c0 := float64(s.lv.stride) / float64(s.lv.viewCells) // level 0's cell in View's
+	var out []flow.Box
+	for l := 1; l < h.Len(); l++ {
+		z0, r0 := h.Origin(l)
+		nz, nr := h.Level(l).Size()
+		sc := math.Ldexp(1, -l) // level l's cell in level 0's
+		out = append(out, flow.Box{Z0: z0 * c0, Z1: (z0 + float64(nz)*sc) * c0, R: (r0 + float64(nr)*sc) * c0})
+	}
+	return out
 }
 
 // LevelFields returns refined level l's fields of the last Observe, in

@@ -47,22 +47,12 @@ func spheresNow(s *drive.Simulation) []output.Circle {
 	return c
 }
 
-// levelBoxes returns the outlines of the refined levels (1 and finer) in
-// the cells of the simulation's View, where they are now; none on one
-// lattice.
+// levelBoxes returns the outlines of the refined levels in the cells of
+// the simulation's View (drive.Simulation.LevelOutlines).
 func levelBoxes(s *drive.Simulation) []output.Box {
-	h := s.Levels()
-	if h == nil {
-		return nil
-	}
-	// level 0's cell in View's cells
-	c0 := float64(s.Stride()) / float64(s.ViewCells())
 	var out []output.Box
-	for l := 1; l < h.Len(); l++ {
-		z0, r0 := h.Origin(l)
-		nz, nr := h.Level(l).Size()
-		sc := math.Ldexp(1, -l) // level l's cell in level 0's
-		out = append(out, output.Box{Z0: z0 * c0, Z1: (z0 + float64(nz)*sc) * c0, R: (r0 + float64(nr)*sc) * c0})
+	for _, b := range s.LevelOutlines() {
+		out = append(out, output.Box{Z0: b.Z0, Z1: b.Z1, R: b.R})
 	}
 	return out
 }

@@ -436,6 +436,15 @@ func (r *Run) finish() (*Summary, error) {
 		r.keep(err)
 		if first, last, samples := r.fields.Averaged(); err == nil && sim.Spheres() > 0 && samples > 0 {
 			sum.Streaming = flow.Measure(mf, mask, sim.FrameOnLiquid, swimmerSpan(sim), sim.View(), first, last)
+			if sim.Levels() != nil {
+				im := flow.Imprint(mf, mask, sim.FrameOnLiquid, sim.LevelOutlines())
+				sum.InterfaceImprint = &im
+				if im > flow.ImprintBound {
+					sum.Warnings = append(sum.Warnings, fmt.Sprintf("the mean vorticity shows the level interfaces: a second difference of %.2g%% of its peak "+
+						"across them (above %g%%; issue 17's bound for an imprint): widen grid.fine_margin or grid.level_margin, or use fewer levels",
+						100*im, 100*flow.ImprintBound))
+				}
+			}
 			r.keep(record.WriteMetrics(r.opt.Out, sum.Streaming))
 		}
 	}

@@ -29,11 +29,14 @@ type Summary struct {
 	PeriodsAnalysed         int      `json:"periods_analysed,omitempty"`
 	NetDisplacement         *float64 `json:"net_displacement_m,omitempty"`
 
-	Streaming  *flow.Streaming      `json:"streaming,omitempty"`
-	Groups     []cases.SphereGroups `json:"groups,omitempty"`
-	Arms       []cases.ArmGroups    `json:"arm_groups,omitempty"` // the groups of each arm's stroke
-	Model      *model.Result        `json:"model,omitempty"`
-	Comparison []Comparison         `json:"model_comparison,omitempty"`
+	Streaming *flow.Streaming `json:"streaming,omitempty"`
+	// InterfaceImprint is, on refined levels, how much the interfaces show
+	// in the mean vorticity (flow.Imprint: a fraction of its peak).
+	InterfaceImprint *float64             `json:"interface_imprint,omitempty"`
+	Groups           []cases.SphereGroups `json:"groups,omitempty"`
+	Arms             []cases.ArmGroups    `json:"arm_groups,omitempty"` // the groups of each arm's stroke
+	Model            *model.Result        `json:"model,omitempty"`
+	Comparison       []Comparison         `json:"model_comparison,omitempty"`
 
 	Steps         int64          `json:"steps"`
 	SimulatedTime float64        `json:"simulated_time_s"`
