@@ -97,17 +97,7 @@ func (s *Simulation) LevelMoves() (moves, cells int) {
 // each level step's own time (lbm.Levels.SetForceFunc, level 0's units:
 // a force density scales as dt^2/dx, stride times the finest level's).
 func (lv *onLevels) hook(s *Simulation) {
-	lv.h.AfterFinest(func() error {
-		if s.sw != nil {
-			if err := s.stepBodies(s.Fluid.Steps()); err != nil {
-				return err
-			}
-		}
-		if s.after != nil {
-			s.after()
-		}
-		return nil
-	})
+	lv.h.AfterFinest(s.afterLatticeStep)
 	if s.FrameOnLiquid {
 		st := float64(lv.stride)
 		lv.h.SetForceFunc(func(t float64) (float64, float64) {

@@ -150,14 +150,24 @@ func (s *Simulation) Advance(n int) error {
 	for i := 0; i < n; i++ {
 		s.Fluid.SetForce(s.liquidForce(s.Time()), 0)
 		s.Fluid.Step()
-		if s.sw != nil {
-			if err := s.stepBodies(s.Fluid.Steps()); err != nil {
-				return err
-			}
+		if err := s.afterLatticeStep(); err != nil {
+			return err
 		}
-		if s.after != nil {
-			s.after()
+	}
+	return nil
+}
+
+// afterLatticeStep is what follows each step of the bodies' lattice (the
+// finest level on refined levels): the bodies move, then AfterStep's
+// function runs.
+func (s *Simulation) afterLatticeStep() error {
+	if s.sw != nil {
+		if err := s.stepBodies(s.Fluid.Steps()); err != nil {
+			return err
 		}
+	}
+	if s.after != nil {
+		s.after()
 	}
 	return nil
 }
