@@ -92,7 +92,8 @@ func TestRunOnLevels(t *testing.T) {
 		t.Fatalf("run on levels: exit %d, %s", code, e)
 	}
 	for _, f := range []string{"summary.json", "series.csv", "periods.csv", "fields/mean.vti", "pictures/mean_vorticity.png",
-		"fields/snapshot_p0002_00.vtm", "fields/levels/snapshot_p0002_00_level0.vti", "fields/levels/snapshot_p0002_00_level1.vti"} {
+		"fields/snapshot_p0002_00.vtm", "fields/levels/snapshot_p0002_00_level0.vti", "fields/levels/snapshot_p0002_00_level1.vti",
+		"fields/mean_fine.vti", "pictures/mean_vorticity_fine.png"} {
 		if _, err := os.Stat(filepath.Join(out, f)); err != nil {
 			t.Errorf("run on levels: %v", err)
 		}

@@ -35,13 +35,21 @@ func (h *Levels) Sample(nz, nr int, spacing float64, dst *Fields, levels []int8)
 // computed (Levels.Fields) or averaged over time: the same interpolation,
 // with the levels where they are now.
 func (h *Levels) SampleFrom(fs []*Fields, nz, nr int, spacing float64, dst *Fields, levels []int8) *Fields {
+	return h.SampleWindow(fs, 0, nz, nr, spacing, dst, levels)
+}
+
+// SampleWindow is SampleFrom onto an image that starts at zStart (level 0's
+// cells) along the axis: node (k, j) at z = zStart + (k + 1/2) spacing,
+// r = (j + 1/2) spacing. A window on part of the container, such as the
+// finest level's region at its own spacing.
+func (h *Levels) SampleWindow(fs []*Fields, zStart float64, nz, nr int, spacing float64, dst *Fields, levels []int8) *Fields {
 	if dst == nil || dst.Nz != nz || dst.Nr != nr {
 		dst = NewFields(nz, nr)
 	}
 	for j := 0; j < nr; j++ {
 		r := (float64(j) + 0.5) * spacing
 		for k := 0; k < nz; k++ {
-			z := (float64(k) + 0.5) * spacing
+			z := zStart + (float64(k)+0.5)*spacing
 			done := false
 			for l := h.Len() - 1; l >= 0 && !done; l-- {
 				z0, r0 := h.Origin(l)

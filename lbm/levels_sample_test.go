@@ -45,6 +45,23 @@ func TestLevelsSample(t *testing.T) {
 				}
 			}
 		}
+		// A window from z = 6 level-0 cells, 8 of them long, holds the
+		// image's nodes from k = 6/sp on, bit for bit (the same positions:
+		// dyadic spacings add exactly).
+		fs := make([]*Fields, h.Len())
+		for l := range fs {
+			fs[l] = h.Fields(l, nil)
+		}
+		wlev := make([]int8, int(8/sp)*nrr)
+		w := h.SampleWindow(fs, 6, int(8/sp), nrr, sp, nil, wlev)
+		for j := 0; j < nrr; j++ {
+			for k := 0; k < w.Nz; k++ {
+				o, i := w.At(k, j), f.At(k+int(6/sp), j)
+				if w.Uz[o] != f.Uz[i] || w.Ur[o] != f.Ur[i] || w.Rho[o] != f.Rho[i] || wlev[o] != lev[i] {
+					t.Errorf("spacing %g: window node (%d, %d) differs from the image's (%d, %d)", sp, k, j, k+int(6/sp), j)
+				}
+			}
+		}
 		// z in [4+2, 4+2+4) level-0 cells is level 2's: at the finest spacing
 		// its interior nodes come from it
 		k := int(7.5 / sp)

@@ -37,7 +37,11 @@
 // then delta/dx = 4.56 (tau+ - 1/2)/0.05 cells: as under-resolved as on
 // that level of a refined demo. Every run lasts -periods periods (default
 // 20, the demo's run) of that T, the jet and the ring as long: 20 T is the
-// number of steps that level takes in a 20-period run.
+// number of steps that level takes in a 20-period run. With -container k
+// the periods are those of the demo in a container k times its radius and
+// length at the same finest spacing (issue 17's confinement study): the
+// acoustic limit makes the finest tau+ - 1/2 k times smaller and the steps
+// per period k times more, so T = k^2 x 3918 (tau+ - 1/2)/0.05.
 //
 // Seed: every run starts from the equilibrium of rho = 1 + 1e-6 x and
 // u = 1e-6 (x, x), x uniform in [-1, 1) from a fixed PCG stream (so runs
@@ -79,7 +83,7 @@
 //
 // Usage:
 //
-//	go run ./benchmarks/taustability [-grid 64x32] [-periods 20] [-bisect 6] [-taus 0.5025,...] [-flows womersley,jet,ring] [-checks=true] [-check-taus 0.5025,0.50625]
+//	go run ./benchmarks/taustability [-grid 64x32] [-periods 20] [-bisect 6] [-taus 0.5025,...] [-flows womersley,jet,ring] [-checks=true] [-check-taus 0.5025,0.50625] [-container 1]
 //
 // Every run uses one goroutine (lbm.Config.Threads = 1) and the kernel path
 // lbm chooses (AXISWIM_KERNEL or the fastest; all give the same bits). The
@@ -377,6 +381,7 @@ func main() {
 	flowsFlag := fs.String("flows", "womersley,jet,ring", "flows: womersley, jet, ring")
 	checks := fs.Bool("checks", true, "also run the grid, period and BGK checks")
 	checkTausFlag := fs.String("check-taus", "0.5025,0.50625", "tau+ values of the checks, comma-separated")
+	container := fs.Float64("container", 1, "periods of the demo in a container this many times its radius and length (k^2 times the demo's steps per period at a tau+)")
 	fs.Usage = func() {
 		fmt.Fprintf(fs.Output(), "usage: go run ./benchmarks/taustability [flags]\n\n"+
 			"Measures the largest stable flow speed of TRT near tau = 1/2 and prints a table.\n\n")
@@ -384,8 +389,8 @@ func main() {
 	}
 	fs.Parse(os.Args[1:])
 	nz, nr, err := parseGrid(*gridFlag)
-	if err == nil && (*periods < 1 || *bisect < 0) {
-		err = fmt.Errorf("-periods must be positive and -bisect at least 0")
+	if err == nil && (*periods < 1 || *bisect < 0 || !(*container >= 1)) {
+		err = fmt.Errorf("-periods must be positive, -bisect at least 0 and -container at least 1")
 	}
 	taus := defaultTaus
 	if err == nil && *tausFlag != "" {
@@ -403,7 +408,7 @@ func main() {
 		fmt.Fprintln(os.Stderr, "taustability:", err)
 		os.Exit(2)
 	}
-	if err := study(os.Stdout, nz, nr, *periods, *bisect, taus, flows, *checks, checkTaus); err != nil {
+	if err := study(os.Stdout, nz, nr, *periods, *bisect, *container, taus, flows, *checks, checkTaus); err != nil {
 		fmt.Fprintln(os.Stderr, "taustability:", err)
 		os.Exit(1)
 	}
@@ -412,17 +417,32 @@ func main() {
 // periodAt is the steps per period at tau+ under acoustic scaling from the
 // demo's finest level.
 func periodAt(tau float64) int {
-	return int(math.Round(finestPeriod * (tau - 0.5) / (finestTau - 0.5)))
+	return periodIn(tau, 1)
 }
 
-func study(w io.Writer, nz, nr, periods, bisect int, taus []float64, flows []flowKind, checks bool, checkTaus []float64) error {
+// periodIn is the steps per period at tau+ on the levels of the demo in a
+// container k times its radius and length (lengths in proportion), the
+// finest spacing the same: the acoustic limit He = omega_L L/c_s <= 1 then
+// takes k times more finest steps per period, each k times shorter, so the
+// finest tau+ - 1/2 is k times smaller and a level at a given tau+ takes
+// k^2 times more steps per period than in the demo.
+func periodIn(tau, k float64) int {
+	return int(math.Round(k * k * finestPeriod * (tau - 0.5) / (finestTau - 0.5)))
+}
+
+func study(w io.Writer, nz, nr, periods, bisect int, k float64, taus []float64, flows []flowKind, checks bool, checkTaus []float64) error {
 	start := time.Now()
 	fmt.Fprintf(w, "TRT (Lambda = 3/16) stability near tau = 1/2: axisymmetric D2Q9, %dx%d, periodic ends, %d periods per run\n", nz, nr, periods)
-	fmt.Fprintf(w, "period T = %d (tau+ - 1/2)/%g steps (acoustic scaling from the demo's finest level)\n\n", finestPeriod, finestTau-0.5)
+	if k == 1 {
+		fmt.Fprintf(w, "period T = %d (tau+ - 1/2)/%g steps (acoustic scaling from the demo's finest level)\n\n", finestPeriod, finestTau-0.5)
+	} else {
+		fmt.Fprintf(w, "period T = %g^2 x %d (tau+ - 1/2)/%g steps (acoustic scaling from the finest level of the demo in a container %g times its size)\n\n",
+			k, finestPeriod, finestTau-0.5, k)
+	}
 	var rows []threshold
 	for _, fl := range flows {
 		for _, tau := range taus {
-			s := setup{flow: fl, nz: nz, nr: nr, tau: tau, collision: lbm.TRT, period: periodAt(tau), periods: periods}
+			s := setup{flow: fl, nz: nz, nr: nr, tau: tau, collision: lbm.TRT, period: periodIn(tau, k), periods: periods}
 			th, err := search(s, bisect)
 			if err != nil {
 				return err
@@ -437,7 +457,7 @@ func study(w io.Writer, nz, nr, periods, bisect int, taus []float64, flows []flo
 		var cr []threshold
 		for _, fl := range flows {
 			for _, tau := range checkTaus {
-				base := setup{flow: fl, nz: nz, nr: nr, tau: tau, collision: lbm.TRT, period: periodAt(tau), periods: periods}
+				base := setup{flow: fl, nz: nz, nr: nr, tau: tau, collision: lbm.TRT, period: periodIn(tau, k), periods: periods}
 				for _, s := range []setup{base,
 					with(base, func(s *setup) { s.nz, s.nr = 2*nz, 2*nr }),
 					with(base, func(s *setup) { s.period *= 4 }),

@@ -57,4 +57,10 @@ func TestPeriodAt(t *testing.T) {
 			t.Errorf("periodAt(%g) = %d, want %d", c.tau, got, c.want)
 		}
 	}
+	// In a container 8 times the demo's (radius 48 mm, length 192 mm) the
+	// finest level has tau+ - 1/2 = 0.05/8 and 8 x 3918 steps per period,
+	// so its level 0 of 4 (tau+ - 1/2 = 0.05/64) has 3918 again.
+	if got := periodIn(0.5+0.05/64, 8); got != 3918 {
+		t.Errorf("periodIn(0.5 + 0.05/64, 8) = %d, want 3918", got)
+	}
 }

@@ -50,3 +50,40 @@ func TestImprint(t *testing.T) {
 		t.Errorf("2%% jump: imprint %.4g, want %.4g (half the jump at the edge's largest radius, over the peak)", got, want)
 	}
 }
+
+// TestDeparture: the same smooth flow as the reference departs by 0; the
+// flow 2% faster everywhere departs by 2% of the vorticity at the largest
+// radius the interface lines reach (the row r = R, j = 10, of the box's
+// outer edge) over the reference's peak: by hand from Departure's
+// definition (w is linear in u).
+func TestDeparture(t *testing.T) {
+	const nz, nr = 60, 20
+	box := []Box{{Z0: 20, Z1: 40, R: 10}}
+	flow := func(scale float64) *lbm.Fields {
+		f := lbm.NewFields(nz, nr)
+		for j := range nr {
+			r := (float64(j) + 0.5) / nr
+			for k := range nz {
+				f.Uz[f.At(k, j)], f.Rho[f.At(k, j)] = scale*(1-r*r), 1
+			}
+		}
+		return f
+	}
+	mask := make([]bool, nz*nr)
+	ref := flow(1)
+	if got := Departure(flow(1), mask, ref, mask, false, box); got != 0 {
+		t.Errorf("the reference itself: departure %g, want 0", got)
+	}
+	w := lbm.Vorticity(ref, false)
+	var peak, edge float64
+	for _, v := range w {
+		peak = math.Max(peak, math.Abs(v))
+	}
+	for k := 20; k < 40; k++ {
+		edge = math.Max(edge, math.Abs(w[10*nz+k]))
+	}
+	want := 0.02 * edge / peak
+	if got := Departure(flow(1.02), mask, ref, mask, false, box); math.Abs(got-want) > 1e-9*want {
+		t.Errorf("2%% faster: departure %.4g, want %.4g", got, want)
+	}
+}

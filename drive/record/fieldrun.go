@@ -30,9 +30,19 @@ type Fields struct {
 	frames    []output.FieldPicture // vorticity of the last period's snapshots
 	err       error
 
+	// On refined levels, the mean flow over the averaging window on the
+	// finest level's region where it was at the window's first sample
+	// (drive.Simulation.FineWindow), at the finest spacing: the swimmer's
+	// close-up (pictures/mean_vorticity_fine.png, fields/mean_fine.vti).
+	win  drive.Window
+	fine *fieldAverage
+
 	// scratch of a sample, reused so that sampling allocates nothing
 	solid []bool    // nodes inside a body
 	body  []float64 // their velocity
+	winF  *lbm.Fields
+	winS  []bool
+	winB  []float64
 }
 
 // NewFields starts the field record of a periodic simulation that writes
@@ -96,6 +106,9 @@ func (r *Fields) Step(n int64) error {
 	solid, body := r.solid, r.body
 	if inAvg && mi >= 0 {
 		r.mean.add(f, solid, body)
+		if r.sim.Levels() != nil {
+			r.addFine()
+		}
 	}
 	if inAvg && pi >= 0 {
 		r.phase[pi].add(f, solid, body)
@@ -119,6 +132,19 @@ func (r *Fields) Step(n int64) error {
 		}
 	}
 	return nil
+}
+
+// addFine adds the present fields of the fine window to its average,
+// choosing the window at the first sample.
+func (r *Fields) addFine() {
+	if r.fine == nil {
+		r.win, _ = r.sim.FineWindow()
+		r.fine = newFieldAverage(r.win.Nz, r.win.Nr)
+	}
+	r.winF = r.sim.WindowFields(r.win, r.winF)
+	r.winS = r.sim.WindowSolid(r.win, r.winS)
+	r.winB = r.sim.WindowBodyVelocity(r.win, r.winB, r.winS)
+	r.fine.add(r.winF, r.winS, r.winB)
 }
 
 func (r *Fields) fieldsDir() (string, error) {
@@ -193,6 +219,18 @@ func (r *Fields) Finish() (*lbm.Fields, []bool, error) {
 	if err := r.writeVTI("mean.vti", mf, mask); err != nil {
 		return nil, nil, err
 	}
+	if r.fine != nil && r.fine.samples > 0 {
+		d, err := r.fieldsDir()
+		if err != nil {
+			return nil, nil, err
+		}
+		l := r.sim.Lattice
+		g := output.Grid{Nz: r.win.Nz, Nr: r.win.Nr, Z0: l.ZSI(float64(r.win.Z0)) + 0.5*l.Dx, R0: 0.5 * l.Dx, Spacing: l.Dx}
+		ff, fm := r.fine.mean()
+		if err := output.WriteVTI(filepath.Join(d, "mean_fine.vti"), g, vtkFieldsOn(l, r.sim.FrameOnLiquid, ff, fm, nil), r.sim.Case.Output.Mirror); err != nil {
+			return nil, nil, err
+		}
+	}
 	var phases []output.CollectionEntry
 	T := r.sim.Lattice.TimeSI(float64(r.spp))
 	for i, a := range r.phase {
@@ -235,6 +273,14 @@ func (r *Fields) writePictures(mf *lbm.Fields, mask []bool) error {
 		p := vorticityPicture(r.sim, mf, mask, nil, fmt.Sprintf("mean flow (steady streaming) over periods %d-%d: vorticity and streamlines",
 			r.avgStart+1, r.periods))
 		if err := output.WriteFieldPNG(filepath.Join(d, "mean_vorticity.png"), p); err != nil {
+			return err
+		}
+	}
+	if r.fine != nil && r.fine.samples > 0 {
+		ff, fm := r.fine.mean()
+		p := finePicture(r.sim, r.win, ff, fm, fmt.Sprintf("mean flow near the swimmer at the finest spacing over periods %d-%d: vorticity and streamlines, refined levels dashed",
+			r.avgStart+1, r.periods))
+		if err := output.WriteFieldPNG(filepath.Join(d, "mean_vorticity_fine.png"), p); err != nil {
 			return err
 		}
 	}

@@ -6,6 +6,7 @@ import (
 	"os"
 	"path/filepath"
 
+	"axiswim/cases"
 	"axiswim/drive"
 	"axiswim/lbm"
 	"axiswim/output"
@@ -62,7 +63,32 @@ func levelBoxes(s *drive.Simulation) []output.Box {
 // axial velocity of the masked nodes (the bodies'), so that the
 // streamfunction integrates across them.
 func vorticityPicture(s *drive.Simulation, f *lbm.Fields, mask []bool, body []float64, title string) output.FieldPicture {
-	l := s.View()
+	return picture(s.View(), s.FrameOnLiquid, f, mask, body, spheresNow(s), levelBoxes(s), title)
+}
+
+// finePicture is the picture of a mean field on the fine window w
+// (drive.Window, finest spacing): the spheres and the refined levels'
+// outlines in w's cells, clipped to it.
+func finePicture(s *drive.Simulation, w drive.Window, f *lbm.Fields, mask []bool, title string) output.FieldPicture {
+	var circles []output.Circle
+	for _, sp := range s.WindowSpheres(w) {
+		circles = append(circles, output.Circle{Z: sp.Z, Radius: sp.Radius})
+	}
+	v := float64(s.ViewCells()) // finest cells per View cell
+	clip := func(x, hi float64) float64 { return math.Max(0, math.Min(hi, x)) }
+	var boxes []output.Box
+	for _, b := range s.LevelOutlines() {
+		z0, z1 := clip(b.Z0*v-float64(w.Z0), float64(w.Nz)), clip(b.Z1*v-float64(w.Z0), float64(w.Nz))
+		if z1 > z0 {
+			boxes = append(boxes, output.Box{Z0: z0, Z1: z1, R: clip(b.R*v, float64(w.Nr))})
+		}
+	}
+	return picture(s.Lattice, s.FrameOnLiquid, f, mask, nil, circles, boxes, title)
+}
+
+// picture is the vorticity picture of a field on lattice l's nodes (for
+// the units), the spheres and boxes in its cells.
+func picture(l *cases.Lattice, frameOnLiquid bool, f *lbm.Fields, mask []bool, body []float64, spheres []output.Circle, boxes []output.Box, title string) output.FieldPicture {
 	n := f.Nz * f.Nr
 	clean := &lbm.Fields{Nz: f.Nz, Nr: f.Nr, Uz: make([]float64, n), Ur: make([]float64, n), Rho: make([]float64, n)}
 	copy(clean.Uz, f.Uz)
@@ -72,7 +98,7 @@ func vorticityPicture(s *drive.Simulation, f *lbm.Fields, mask []bool, body []fl
 			clean.Uz[i], clean.Ur[i] = body[i], 0
 		}
 	}
-	om := lbm.Vorticity(clean, s.FrameOnLiquid)
+	om := lbm.Vorticity(clean, frameOnLiquid)
 	psi := lbm.Streamfunction(clean)
 	for i := range om {
 		om[i] = l.RateSI(om[i])
@@ -82,7 +108,7 @@ func vorticityPicture(s *drive.Simulation, f *lbm.Fields, mask []bool, body []fl
 		}
 	}
 	return output.FieldPicture{Nz: f.Nz, Nr: f.Nr, Field: om, Odd: true, Diverging: true,
-		Psi: psi, Spheres: spheresNow(s), Boxes: levelBoxes(s), Title: title, Label: "vorticity (1/s)"}
+		Psi: psi, Spheres: spheres, Boxes: boxes, Title: title, Label: "vorticity (1/s)"}
 }
 
 // WriteCharts draws the swimmer's charts into dir/pictures: the centroid

@@ -1,6 +1,9 @@
 package record
 
-import "axiswim/output"
+import (
+	"axiswim/drive"
+	"axiswim/output"
+)
 
 // The parts of a run's checkpoint that the record keeps: the period
 // record, the field averages and the picture frames. Field names are
@@ -45,6 +48,10 @@ type FieldsState struct {
 	Phase  []AverageState
 	Snaps  []output.CollectionEntry
 	Frames []FrameState
+	// refined levels: the fine window's average and the window (Z0, Nz,
+	// Nr; absent before its first sample and from earlier checkpoints)
+	Fine       *AverageState
+	FineWindow [3]int
 }
 
 // FrameState is one picture frame of a FieldsState.
@@ -124,6 +131,10 @@ func (r *Fields) Capture() *FieldsState {
 	for _, f := range r.frames {
 		st.Frames = append(st.Frames, FrameState{Field: f.Field, Psi: f.Psi, Spheres: f.Spheres, Boxes: f.Boxes, Title: f.Title})
 	}
+	if r.fine != nil {
+		a := r.fine.capture()
+		st.Fine, st.FineWindow = &a, [3]int{r.win.Z0, r.win.Nz, r.win.Nr}
+	}
 	return st
 }
 
@@ -136,6 +147,12 @@ func (r *Fields) Restore(st *FieldsState) {
 		}
 	}
 	r.snaps = append([]output.CollectionEntry(nil), st.Snaps...)
+	r.fine = nil
+	if st.Fine != nil {
+		r.win = drive.Window{Z0: st.FineWindow[0], Nz: st.FineWindow[1], Nr: st.FineWindow[2]}
+		r.fine = newFieldAverage(r.win.Nz, r.win.Nr)
+		r.fine.restore(*st.Fine)
+	}
 	r.frames = nil
 	for _, f := range st.Frames {
 		r.frames = append(r.frames, output.FieldPicture{Nz: r.sim.View().Nz, Nr: r.sim.View().Nr,

@@ -68,7 +68,7 @@ func testResume(t *testing.T, precision string, change func(*cases.Case)) {
 	files := []string{"series.csv", "periods.csv", "metrics.csv", "fields/mean.vti",
 		"fields/phase_03.vti", last + ".vti", "fields/snapshots.pvd"}
 	if c.Grid.Levels > 1 {
-		files = append(files, last+".vtm", "fields/levels/snapshot_p"+last[len("fields/snapshot_p"):]+"_level1.vti")
+		files = append(files, last+".vtm", "fields/levels/snapshot_p"+last[len("fields/snapshot_p"):]+"_level1.vti", "fields/mean_fine.vti")
 	}
 	for _, f := range files {
 		a, err1 := os.ReadFile(filepath.Join(whole, f))
