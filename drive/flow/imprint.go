@@ -33,12 +33,7 @@ func Imprint(mf *lbm.Fields, mask []bool, frameOnLiquid bool, boxes []Box) float
 	}
 	w := lbm.Vorticity(mf, frameOnLiquid)
 	nz, nr := mf.Nz, mf.Nr
-	var peak float64
-	for i, v := range w {
-		if !mask[i] {
-			peak = math.Max(peak, math.Abs(v))
-		}
-	}
+	peak := peakAbs(w, mask)
 	if peak == 0 {
 		return 0
 	}
@@ -67,12 +62,7 @@ func Departure(mf *lbm.Fields, mask []bool, ref *lbm.Fields, refMask []bool, fra
 	}
 	w, wr := lbm.Vorticity(mf, frameOnLiquid), lbm.Vorticity(ref, frameOnLiquid)
 	nz, nr := mf.Nz, mf.Nr
-	var peak float64
-	for i, v := range wr {
-		if !refMask[i] {
-			peak = math.Max(peak, math.Abs(v))
-		}
-	}
+	peak := peakAbs(wr, refMask)
 	if peak == 0 {
 		return 0
 	}
@@ -102,4 +92,15 @@ func interfaceLines(boxes []Box, nz, nr int, visit func(k, j, dk, dj int)) {
 			visit(k, r, 0, 1)
 		}
 	}
+}
+
+// peakAbs is the largest |w| over the nodes mask leaves out.
+func peakAbs(w []float64, mask []bool) float64 {
+	var peak float64
+	for i, v := range w {
+		if !mask[i] {
+			peak = math.Max(peak, math.Abs(v))
+		}
+	}
+	return peak
 }
