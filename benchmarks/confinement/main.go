@@ -191,28 +191,50 @@ func study(w io.Writer, dir string, ks, levels []float64, margin float64, period
 	return nil
 }
 
-// extrapolate prints the unbounded speed from the three largest
-// containers (the package comment says how).
-func extrapolate(w io.Writer, r []row) {
-	x := make([]float64, len(r))
-	y := make([]float64, len(r))
-	for i := range r {
-		x[i], y[i] = 1/r[i].radii, r[i].speed
+// extrapolation is the unbounded speed from three containers (the package
+// comment says how): the least-squares line U = Line0 + Line1 a/R and,
+// where the radii double and the differences D1 = U_1 - U_2, D2 = U_2 -
+// U_3 keep their sign (OK), the observed order P and Richardson's
+// unbounded speed.
+type extrapolation struct {
+	Line0, Line1 float64
+	D1, D2       float64
+	OK           bool
+	P, Inf       float64
+}
+
+// extrapolateSpeeds extrapolates the speeds u measured at container radii
+// radii (in small-sphere radii, increasing) to an unbounded liquid.
+func extrapolateSpeeds(radii, u [3]float64) extrapolation {
+	x := make([]float64, 3)
+	for i := range radii {
+		x[i] = 1 / radii[i]
 	}
-	b0, b1 := stat.LinearRegression(x, y, nil, false)
+	var e extrapolation
+	e.Line0, e.Line1 = stat.LinearRegression(x, u[:], nil, false)
+	e.D1, e.D2 = u[0]-u[1], u[1]-u[2]
+	e.OK = radii[1] == 2*radii[0] && radii[2] == 2*radii[1] && e.D1*e.D2 > 0
+	if e.OK {
+		e.P = math.Log2(e.D1 / e.D2)
+		e.Inf = u[2] + (u[2]-u[1])/(math.Pow(2, e.P)-1)
+	}
+	return e
+}
+
+// extrapolate prints the unbounded speed from the three largest
+// containers.
+func extrapolate(w io.Writer, r []row) {
+	e := extrapolateSpeeds([3]float64{r[0].radii, r[1].radii, r[2].radii}, [3]float64{r[0].speed, r[1].speed, r[2].speed})
 	fmt.Fprintf(w, "Line through R/a = %g, %g, %g: U = %.4e %+.4e a/R m/s: unbounded speed %.4e m/s (%+.1f%% from R/a = %g)\n",
-		r[0].radii, r[1].radii, r[2].radii, b0, b1, b0, 100*(b0/r[2].speed-1), r[2].radii)
-	d1, d2 := r[0].speed-r[1].speed, r[1].speed-r[2].speed
-	if r[1].radii != 2*r[0].radii || r[2].radii != 2*r[1].radii || d1*d2 <= 0 {
-		fmt.Fprintf(w, "Observed order: undefined (radii not doubling, or the differences %.3g and %.3g m/s change sign)\n", d1, d2)
+		r[0].radii, r[1].radii, r[2].radii, e.Line0, e.Line1, e.Line0, 100*(e.Line0/r[2].speed-1), r[2].radii)
+	if !e.OK {
+		fmt.Fprintf(w, "Observed order: undefined (radii not doubling, or the differences %.3g and %.3g m/s change sign)\n", e.D1, e.D2)
 		return
 	}
-	p := math.Log2(d1 / d2)
-	uinf := r[2].speed + (r[2].speed-r[1].speed)/(math.Pow(2, p)-1)
 	fmt.Fprintf(w, "Observed order in a/R: p = %.2f; Richardson: unbounded speed %.4e m/s (%+.1f%% from R/a = %g)\n",
-		p, uinf, 100*(uinf/r[2].speed-1), r[2].radii)
+		e.P, e.Inf, 100*(e.Inf/r[2].speed-1), r[2].radii)
 	fmt.Fprintf(w, "(the standard errors of the speeds, %.1e to %.1e m/s, against their differences %.2g and %.2g m/s)\n",
-		minErr(r), maxErr(r), d1, d2)
+		minErr(r), maxErr(r), e.D1, e.D2)
 }
 
 func minErr(r []row) float64 {
