@@ -1,6 +1,7 @@
 package drive
 
 import (
+	"fmt"
 	"testing"
 
 	"axiswim/cases"
@@ -18,10 +19,20 @@ import (
 // handful in the first few thousand steps of the demo, then none), which
 // is not this code's doing.
 func TestAdvanceAllocatesNothing(t *testing.T) {
+	for _, levels := range []int{1, 2} {
+		t.Run(fmt.Sprintf("levels=%d", levels), func(t *testing.T) { advanceAllocatesNothing(t, levels) })
+	}
+}
+
+// advanceAllocatesNothing is TestAdvanceAllocatesNothing on the given
+// number of levels (on refined levels a step is every level's steps and
+// transfers, an observation every level's fields).
+func advanceAllocatesNothing(t *testing.T, levels int) {
 	c, err := cases.Load("../testdata/small-swimmer.toml")
 	if err != nil {
 		t.Fatal(err)
 	}
+	c.Grid.Levels = levels
 	sim, err := Setup(c, 2)
 	if err != nil {
 		t.Fatal(err)
