@@ -34,16 +34,6 @@ const (
 	// warning; the default stays issue 17's two radii, since at four its
 	// speed case needs 15.8 times the demo's node updates (bound 10).
 	AccurateFineMargin = 4.0
-	// AccurateNextTau is the least tau+ of the level next to the finest
-	// (the coarse side of the finest level's interface, where the spheres'
-	// oscillating flow crosses it) that the measurements of issue 17 found
-	// accurate: the demo on 3 levels with 0.526 there follows the uniform
-	// run, while with 0.5125 (the demo in a container twice its size) 2
-	// levels swim three times too slow and 3 levels drift away
-	// exponentially (README, "How the lattice is chosen", session 11).
-	// The bound lies between the two; below it a run warns. Not yet
-	// understood: a finding, not a tuned number.
-	AccurateNextTau = 0.52
 	// MinFineMarginCells is the smallest fine margin, in cells of the
 	// finest level. lbm.Levels restricts a coarse cell from the cubic
 	// interpolation of 4 x 4 fine cells; the second coarse row inside a

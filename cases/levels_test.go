@@ -483,29 +483,3 @@ func TestLevelsNeedSpheres(t *testing.T) {
 		t.Errorf("pipe on 2 levels: %v", err)
 	}
 }
-
-// TestNextTauWarning: the level next to the finest below
-// cases.AccurateNextTau is warned about (the finding of the README's "How
-// the lattice is chosen": the demo in a container twice its size, whose
-// level next to the finest has tau+ 0.5125 on 2 levels, swims three times
-// too slow against its uniform run); the demo itself on 2 levels (0.525
-// there, agreeing with the uniform demo within 0.005%) is not.
-func TestNextTauWarning(t *testing.T) {
-	for _, tc := range []struct {
-		k    float64
-		want bool
-	}{{1, false}, {2, true}} {
-		c := demoWith(t, "levels = 2", "fine_margin = 4")
-		c.Container.Radius *= tc.k
-		c.Container.Length *= tc.k
-		l := resolve(t, c)
-		tau := l.Layout().Levels[0].Tau
-		found := false
-		for _, w := range l.Warnings {
-			found = found || strings.Contains(w, "next to the finest")
-		}
-		if found != tc.want || (tau < cases.AccurateNextTau) != tc.want {
-			t.Errorf("container x%g: level 0 tau+ %.5f, warned %v, want %v", tc.k, tau, found, tc.want)
-		}
-	}
-}

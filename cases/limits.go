@@ -294,12 +294,6 @@ func (c *Case) levelWarnings(l *Lattice, warn func(format string, args ...any)) 
 			"the demo on 2 levels swims 5.2%% slow at 2 radii and agrees with the uniform lattice at %g (README, \"Runs on refined levels\"; "+
 			"verify -full refined-demo): set grid.fine_margin = %g, or check the speed against a uniform run", m, AccurateFineMargin, AccurateFineMargin)
 	}
-	if n := len(ly.Levels); n > 1 && ly.Levels[n-2].Tau < AccurateNextTau {
-		warn("level %d, next to the finest, has tau+ = %.5g, below %g: on refined levels such a run has been measured wrong "+
-			"(the demo in a container twice its size: 3 times too slow on 2 levels, drifting away exponentially on 3; README, \"How the lattice is chosen\"): "+
-			"do not trust its speed without a uniform run of the same case, or raise grid.cells_per_radius (tau+ - 1/2 grows as 1/(dx L) under the acoustic limit) or shorten the container",
-			n-2, ly.Levels[n-2].Tau, AccurateNextTau)
-	}
 	for k, lv := range ly.Levels {
 		if lv.Tau < MinLevelTau {
 			warn("level %d has tau+ = %.5g, below %g, the smallest measured (%s): it may be unstable; raise grid.tau or use fewer levels",
