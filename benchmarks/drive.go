@@ -27,11 +27,7 @@ const driveWarmUp = 400
 // demoCase returns the embedded demo case with grid.cells_per_radius set
 // to cells.
 func demoCase(cells int) (*cases.Case, error) {
-	src, err := cases.Get("demo")
-	if err != nil {
-		return nil, err
-	}
-	c, err := cases.Parse("demo (embedded)", src)
+	c, err := cases.ParseExample("demo")
 	if err != nil {
 		return nil, err
 	}

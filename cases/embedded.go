@@ -69,3 +69,13 @@ func Open(name, dir string) (src []byte, embedded bool, err error) {
 	}
 	return nil, false, err
 }
+
+// ParseExample returns the embedded example case of the given name, parsed
+// (Get, then Parse under that name).
+func ParseExample(name string) (*Case, error) {
+	src, err := Get(name)
+	if err != nil {
+		return nil, err
+	}
+	return Parse(name, src)
+}

@@ -129,11 +129,7 @@ func floats(s string) ([]float64, error) {
 
 // containerCase is the demo in a container k times its radius and length.
 func containerCase(k float64, levels int, margin float64, periods int) (*cases.Case, error) {
-	src, err := cases.Get("demo")
-	if err != nil {
-		return nil, err
-	}
-	c, err := cases.Parse("demo", src)
+	c, err := cases.ParseExample("demo")
 	if err != nil {
 		return nil, err
 	}

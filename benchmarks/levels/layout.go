@@ -55,11 +55,7 @@ type layout struct {
 // demoSetup resolves the embedded demo, the uniform lattice of the
 // comparison.
 func demoSetup() (*cases.Case, *cases.Lattice, error) {
-	src, err := cases.Get("demo")
-	if err != nil {
-		return nil, nil, err
-	}
-	c, err := cases.Parse("demo (embedded)", src)
+	c, err := cases.ParseExample("demo")
 	if err != nil {
 		return nil, nil, err
 	}

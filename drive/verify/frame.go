@@ -14,11 +14,7 @@ import (
 // must stay at rest: CHECKS.md 2d asks for a residual speed of at most
 // 1e-6 of A omega.
 func checkShakenClosed(o Options) ([]Row, error) {
-	src, err := cases.Get("shaken-cell")
-	if err != nil {
-		return nil, err
-	}
-	c, err := cases.Parse("shaken-cell", src)
+	c, err := cases.ParseExample("shaken-cell")
 	if err != nil {
 		return nil, err
 	}
